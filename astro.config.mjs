@@ -1,0 +1,22 @@
+// @ts-check
+import { defineConfig } from 'astro/config';
+import node from '@astrojs/node';
+import react from '@astrojs/react';
+import tailwindcss from '@tailwindcss/vite';
+
+export default defineConfig({
+  output: 'server',
+  adapter: node({ mode: 'standalone' }),
+  integrations: [react()],
+  server: { host: process.env.HOST ?? '127.0.0.1', port: Number(process.env.PORT ?? 4321) },
+  // The built server compares Origin against its own host; list the loopback names so
+  // form POSTs from either spelling are accepted (see DEVELOPERS.md).
+  security: {
+    checkOrigin: true,
+    allowedDomains: [{ hostname: '127.0.0.1' }, { hostname: 'localhost' }],
+  },
+  vite: {
+    plugins: [tailwindcss()],
+    ssr: { external: ['pg-boss', 'pg', '@mikro-orm/core', '@mikro-orm/postgresql', '@mikro-orm/migrations', '@mikro-orm/seeder', 'nodemailer', 'qrcode', 'pdf-lib'] },
+  },
+});
