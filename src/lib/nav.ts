@@ -1,0 +1,11 @@
+/** Navigation entries and which roles see them; later parts of the app add theirs here. */
+import type { ShopRole } from './access';
+
+export type NavItem = { href: string; label: string; roles: readonly ShopRole[] };
+
+export const NAV: NavItem[] = [
+  { href: '/', label: 'Home', roles: ['owner', 'lead', 'technician', 'reviewer'] },
+  { href: '/shop/members', label: 'Members', roles: ['owner'] },
+];
+
+export const navFor = (role: ShopRole | null) => (role ? NAV.filter((n) => n.roles.includes(role)) : []);

@@ -1,0 +1,57 @@
+/**
+ * Every request: one MikroORM identity map, the session and active shop on `locals`, then the
+ * sign-in gate (pages redirect, API routes answer 401 in our error shape), then security headers.
+ */
+import { defineMiddleware, sequence } from 'astro:middleware';
+import { RequestContext } from '@mikro-orm/core';
+import { initORM } from './server/db';
+import { auth } from './server/auth';
+import { activeMembership } from './server/membership';
+import { errorResponse } from './server/http';
+
+const PUBLIC_PREFIXES = ['/sign-in', '/forgot-password', '/reset-password', '/invitation/', '/api/auth/', '/api/health', '/share/', '/api/share/', '/_astro/', '/_image', '/favicon', '/fonts/'];
+const isPublic = (path: string) => PUBLIC_PREFIXES.some((p) => path === p || path.startsWith(p)) || path === '/404' || path === '/500';
+
+const withOrmContext = defineMiddleware(async (_ctx, next) => {
+  const orm = await initORM();
+  return RequestContext.create(orm.em, next);
+});
+
+const withSession = defineMiddleware(async (ctx, next) => {
+  ctx.locals.user = null;
+  ctx.locals.session = null;
+  ctx.locals.shop = null;
+  ctx.locals.role = null;
+  const path = ctx.url.pathname;
+  if (path.startsWith('/_astro/') || path.startsWith('/api/auth/')) return next();
+  const s = await auth().api.getSession({ headers: ctx.request.headers });
+  if (s) {
+    ctx.locals.user = { id: s.user.id, name: s.user.name, email: s.user.email };
+    ctx.locals.session = { id: s.session.id, activeOrganizationId: (s.session as { activeOrganizationId?: string | null }).activeOrganizationId ?? null };
+    const m = await activeMembership(s.user.id, ctx.locals.session.activeOrganizationId);
+    if (m) {
+      ctx.locals.shop = m.shop;
+      ctx.locals.role = m.role;
+    }
+  }
+  return next();
+});
+
+const signInGate = defineMiddleware(async (ctx, next) => {
+  const path = ctx.url.pathname;
+  if (ctx.locals.user || isPublic(path)) return next();
+  if (path.startsWith('/api/')) return errorResponse('unauthenticated', 'Sign in first.');
+  const back = path + ctx.url.search;
+  return ctx.redirect(`/sign-in${back && back !== '/' ? `?next=${encodeURIComponent(back)}` : ''}`, 303);
+});
+
+const securityHeaders = defineMiddleware(async (_ctx, next) => {
+  const res = await next();
+  const h = res.headers;
+  if (!h.has('x-content-type-options')) h.set('x-content-type-options', 'nosniff');
+  if (!h.has('referrer-policy')) h.set('referrer-policy', 'same-origin');
+  if (!h.has('x-frame-options')) h.set('x-frame-options', 'DENY');
+  return res;
+});
+
+export const onRequest = sequence(securityHeaders, withOrmContext, withSession, signInGate);
