@@ -57,3 +57,47 @@ export const ev = (input: RunEventInput): RunEvent => runEvent.parse(input);
 /** Confirm events for a sequence, in the given order, pass by pass. */
 export const confirmAll = (stepId: string, order: string[], passes: number, actor: RunActor = tech): RunEvent[] =>
   Array.from({ length: passes }, (_, p) => order.map((fastenerId) => ev({ type: 'fastener.confirm', stepId, actor, pass: p + 1, fastenerId }))).flat();
+
+/** Events up to (not including) the first event on `stepId`, along the happy path of FULL_LOG. */
+export const logUntil = (stepId: string): RunEvent[] => {
+  const i = FULL_LOG.findIndex((e) => e.stepId === stepId);
+  return FULL_LOG.slice(0, i < 0 ? FULL_LOG.length : i);
+};
+
+/**
+ * A whole run of PROCEDURE: main 2 is read under its minimum, the technician asks for a
+ * deviation and a lead approves it; the reviewer signs the hold point.
+ */
+export const FULL_LOG: RunEvent[] = [
+  ev({ type: 'caution.acknowledge', stepId: 'c-cool', actor: tech }),
+  ev({ type: 'step.start', stepId: 'a-cover', actor: tech }),
+  ev({ type: 'step.complete', stepId: 'a-cover', actor: tech }),
+  ev({ type: 'step.start', stepId: 'f-head', actor: tech }),
+  ...confirmAll('f-head', HEAD_ORDER, 2),
+  ev({ type: 'step.start', stepId: 'a-lift', actor: tech, hazards: ['lifting'] }),
+  ev({ type: 'step.complete', stepId: 'a-lift', actor: tech2, note: 'Two-person lift with the shop hoist' }),
+  ev({ type: 'step.start', stepId: 't-caps', actor: tech }),
+  ev({
+    type: 'step.complete',
+    stepId: 't-caps',
+    actor: tech,
+    tags: [
+      { position: 'Main 1', disposition: 'reuse', bin: 'B-4' },
+      { position: 'Main 2', disposition: 'machine-shop' },
+    ],
+  }),
+  ev({ type: 'step.start', stepId: 'm-main', actor: tech }),
+  ev({ type: 'reading.enter', stepId: 'm-main', actor: tech, key: 'Main 1', value: 60.004 }),
+  ev({ type: 'reading.enter', stepId: 'm-main', actor: tech, key: 'Main 2', value: 59.95 }),
+  ev({ type: 'measure.submit', stepId: 'm-main', actor: tech }),
+  ev({ type: 'deviation.request', stepId: 'm-main', actor: tech, kind: 'out-of-spec', reason: 'Crank goes to the machine shop for regrind' }),
+  ev({ type: 'deviation.approve', stepId: 'm-main', actor: lead }),
+  ev({ type: 'step.start', stepId: 'i-deck', actor: tech }),
+  ev({ type: 'step.complete', stepId: 'i-deck', actor: tech, note: 'No cracks found' }),
+  ev({ type: 'hold.sign', stepId: 'h-review', actor: reviewer, meaning: 'Teardown checked against the procedure' }),
+  ev({ type: 'step.start', stepId: 'q-pump', actor: tech }),
+  ev({ type: 'torque.confirm', stepId: 'q-pump', actor: tech, applied: { value: 25, unit: 'N·m' } }),
+  ev({ type: 'step.complete', stepId: 'q-pump', actor: tech }),
+  ev({ type: 'step.start', stepId: 'r-bolts', actor: tech }),
+  ev({ type: 'step.complete', stepId: 'r-bolts', actor: lead }),
+];
