@@ -7,6 +7,7 @@ import { Migrator } from '@mikro-orm/migrations';
 import { SeedManager } from '@mikro-orm/seeder';
 import { entities } from './src/server/entities/index';
 import { AUTH_TABLES } from './src/server/auth-tables';
+import { migrationsList } from './src/server/migrations/index';
 
 export default defineConfig({
   clientUrl: process.env.DATABASE_URL ?? 'postgres://postgres@127.0.0.1:54329/torquetrail',
@@ -15,7 +16,7 @@ export default defineConfig({
   migrations: {
     path: './src/server/migrations',
     pathTs: './src/server/migrations',
-    glob: '!(*.d).{js,ts}',
+    migrationsList,
     transactional: true,
     allOrNothing: true,
     snapshot: false,

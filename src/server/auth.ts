@@ -30,8 +30,12 @@ function createAuth() {
       },
     },
     session: { expiresIn: 60 * 60 * 24 * 14, updateAge: 60 * 60 * 24 },
-    rateLimit: { enabled: c.NODE_ENV === 'production', window: 60, max: 100, customRules: { '/sign-in/email': { window: 60, max: 10 } } },
-    advanced: { useSecureCookies: c.PUBLIC_URL.startsWith('https://') },
+    rateLimit: { enabled: c.NODE_ENV === 'production', window: 60, max: 300, customRules: { '/sign-in/email': { window: 60, max: c.SIGNIN_RATE_LIMIT } } },
+    advanced: {
+      useSecureCookies: c.PUBLIC_URL.startsWith('https://'),
+      // Behind a load balancer the client address arrives in these headers (see README).
+      ipAddress: { ipAddressHeaders: ['x-forwarded-for', 'x-real-ip'] },
+    },
     plugins: [
       organization({
         ac,

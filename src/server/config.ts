@@ -23,6 +23,8 @@ const schema = z.object({
   MAIL_FROM: z.string().default('Torquetrail <no-reply@torquetrail.test>'),
   MAIL_INBOX_URL: z.string().default('http://127.0.0.1:1080'),
   TRUSTED_ORIGINS: z.string().default(''),
+  /** Sign-in attempts allowed per minute per client address. */
+  SIGNIN_RATE_LIMIT: z.coerce.number().int().positive().default(10),
   NODE_ENV: z.string().default('development'),
 });
 
