@@ -1,10 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { isDomainError } from '../errors';
+import type { ProcedureFileInput } from './file-format';
 import { exportProcedureFile, formatPath, parseProcedureFile, procedureFileJson, procedureKeyFrom } from './file-format';
 import { blankStep } from './new-step';
 
 const meta = { key: 'head-only', name: 'Head only', kind: 'teardown', engineFamily: 'Invented', description: '' } as const;
-const goodFile = () => ({
+const goodFile = (): ProcedureFileInput & { revision: { note: string } } => ({
   schemaVersion: 1,
   procedure: { ...meta },
   revision: {

@@ -2,7 +2,7 @@
 import * as z from 'zod';
 import { DomainError } from '../errors';
 import { step } from './schema';
-import type { Step, StepKind } from './schema';
+import type { Step, StepKind, StepOf } from './schema';
 
 type StepInput = z.input<typeof step>;
 
@@ -51,11 +51,14 @@ const templates: { [K in StepKind]: (id: string) => Extract<StepInput, { kind: K
   replace: (id) => ({ id, kind: 'replace', title: 'Parts to replace', parts: [{ part: 'Part', quantity: 1 }] }),
 };
 
+const isKind = <K extends StepKind>(s: Step, kind: K): s is StepOf<K> => s.kind === kind;
+
 /** A valid default step of the given kind, with every schema default filled in. */
-export function blankStep(kind: StepKind, id: string): Step {
+export function blankStep<K extends StepKind>(kind: K, id: string): StepOf<K> {
   const make = templates[kind];
   if (!make) throw new DomainError('invalid-input', `Unknown step kind "${String(kind)}"`);
   const parsed = step.safeParse(make(id));
   if (!parsed.success) throw new DomainError('invalid-input', `Step id "${id}" is not usable`, { issues: parsed.error.issues });
+  if (!isKind(parsed.data, kind)) throw new DomainError('invalid-input', `Template for "${kind}" made a "${parsed.data.kind}" step`);
   return parsed.data;
 }
