@@ -6,6 +6,8 @@ import tailwindcss from '@tailwindcss/vite';
 
 export default defineConfig({
   output: 'server',
+  // `npm test` builds into its own throwaway folder so parallel runs never replace a running build.
+  outDir: process.env.TT_OUT_DIR ?? './dist',
   adapter: node({ mode: 'standalone' }),
   integrations: [react()],
   server: { host: process.env.HOST ?? '127.0.0.1', port: Number(process.env.PORT ?? 4321) },

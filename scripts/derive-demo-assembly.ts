@@ -74,6 +74,10 @@ edit('Tighten cylinder head bolts', (s) =>
     : s,
 );
 
+edit('Lower in crankshaft', (s) => ({ ...s, body: 'Upper shells in, journals and shells oiled. Two people or a hoist with a soft sling; lower the crank level without touching the thrust faces.' }));
+edit('Install rocker shaft assembly', (s) => ({ ...s, body: 'Push rods seated in their lifters and rocker cups. Set the shaft down level with every rocker on its push rod.' }));
+edit('Install valve cover', (s) => ({ ...s, body: 'New valve cover gasket, sealing faces clean and dry.' }));
+edit('Install injector lines', (s) => ({ ...s, body: 'Remove the blanking caps one port at a time. Start each fitting by hand, then tighten with a line wrench.' }));
 edit('Install oil pan', (s) => ({ ...s, body: 'New oil pan gasket. Afterwards turn the engine upright on the stand (stand locked, rated for the load).' }));
 edit('Measure valve clearance', (s) => ({
   ...s,

@@ -31,7 +31,7 @@ process.on('SIGTERM', async () => { await cleanup(); process.exit(143); });
 function vitest(config, env, label) {
   const report = path.join(dataDir, `${label}-report.json`);
   say(`Running ${label} tests (vitest)`);
-  const r = spawnSync(process.execPath, [path.join(root, 'node_modules', 'vitest', 'vitest.mjs'), 'run', '--config', config, '--reporter=default', '--reporter=json', `--outputFile.json=${report}`, ...filters], { cwd: root, stdio: 'inherit', env: { ...process.env, ...env } });
+  const r = spawnSync(process.execPath, [path.join(root, 'node_modules', 'vitest', 'vitest.mjs'), 'run', '--config', config, '--reporter=default', '--reporter=json', `--outputFile.json=${report}`, ...(filters.length ? ['--passWithNoTests'] : []), ...filters], { cwd: root, stdio: 'inherit', env: { ...process.env, ...env } });
   let passed = 0, failed = 0, skipped = 0;
   if (fs.existsSync(report)) {
     const j = JSON.parse(fs.readFileSync(report, 'utf8'));
@@ -53,9 +53,10 @@ try {
   if (only !== 'unit') {
     const chromium = ensureChromium();
     migrateAndSeed(stack.env);
-    buildIfStale();
+    const outDir = path.join(dataDir, 'dist');
+    buildIfStale(outDir);
     say(`Starting the built app on ${appUrl}`);
-    app = await startApp({ ...stack.env, SIGNIN_RATE_LIMIT: '1000' }, { host: '127.0.0.1', port: appPort, silent: !process.env.TT_APP_LOG });
+    app = await startApp({ ...stack.env, SIGNIN_RATE_LIMIT: '1000' }, { host: '127.0.0.1', port: appPort, silent: !process.env.TT_APP_LOG, outDir });
     ok = vitest('vitest.e2e.config.ts', { ...stack.env, APP_URL: appUrl, CHROMIUM_PATH: chromium, MAIL_API: stack.env.MAIL_INBOX_URL, TT_DATA_DIR: dataDir }, 'browser') && ok;
   }
   exitCode = ok ? 0 : 1;

@@ -93,23 +93,23 @@ function newest(paths) {
 }
 
 /** Builds the production server unless dist/ is newer than every source it comes from. */
-export function buildIfStale() {
-  const entry = path.join(root, 'dist', 'server', 'entry.mjs');
+export function buildIfStale(outDir = path.join(root, 'dist')) {
+  const entry = path.join(outDir, 'server', 'entry.mjs');
   const sources = ['src', 'public', 'astro.config.mjs', 'package-lock.json', 'tsconfig.json'].map((p) => path.join(root, p));
   if (fs.existsSync(entry) && fs.statSync(entry).mtimeMs > newest(sources)) {
     say('Production build is up to date');
     return;
   }
   say('Building the app (astro build)');
-  run(process.execPath, [path.join(root, 'node_modules', 'astro', 'astro.js'), 'build', '--silent'], { cwd: root });
+  run(process.execPath, [path.join(root, 'node_modules', 'astro', 'astro.js'), 'build', '--silent'], { cwd: root, env: { ...process.env, TT_OUT_DIR: outDir } });
   fs.utimesSync(entry, new Date(), new Date());
 }
 
 /** Starts the built server (or astro dev) and waits until it answers. */
-export async function startApp(env, { host, port, dev = false, silent = false }) {
+export async function startApp(env, { host, port, dev = false, silent = false, outDir = path.join(root, 'dist') }) {
   const args = dev
     ? [path.join(root, 'node_modules', 'astro', 'astro.js'), 'dev', '--host', host, '--port', String(port)]
-    : [path.join(root, 'dist', 'server', 'entry.mjs')];
+    : [path.join(outDir, 'server', 'entry.mjs')];
   const app = startChild('app', process.execPath, args, { cwd: root, silent, env: { ...process.env, ...env, HOST: host, PORT: String(port), NODE_ENV: dev ? 'development' : 'production' } });
   await waitForPort(port, host, 120_000, app);
   return app;
