@@ -121,13 +121,21 @@ describe('properties', () => {
   });
 
   it('a random walk keeps only accepted events, and its log replays to where the walk ended', () => {
-    const step = fc.oneof({ arbitrary: anyEvent, weight: 1 }, { arbitrary: fc.constantFrom(...FULL_LOG), weight: 3 });
+    // 'follow' takes the first event of the known-good log (or a lead's decision on a random
+    // deviation) that the walk's state accepts, so the walk gets deep into the run; random events
+    // in between push it off the happy path.
+    const decisions = PROCEDURE.flatMap((s) => [owner, lead2].map((actor) => ev({ type: 'deviation.approve', stepId: s.id, actor })));
+    const GUIDE = [...FULL_LOG, ...decisions];
+    const move = fc.oneof({ arbitrary: anyEvent, weight: 1 }, { arbitrary: fc.constant('follow' as const), weight: 4 });
     let longest = 0;
+    let deepest = 0;
     fc.assert(
-      fc.property(fc.array(step, { maxLength: 120 }), (events) => {
+      fc.property(fc.array(move, { minLength: 100, maxLength: 250 }), (moves) => {
         let snapshot = startRun(PROCEDURE);
         const log: RunEvent[] = [];
-        for (const e of events) {
+        for (const m of moves) {
+          const e = m === 'follow' ? GUIDE.find((f) => snapshot.can(f)) : m;
+          if (!e) continue;
           const result = applyEvent(PROCEDURE, storeRun(snapshot), e);
           if (result.ok) {
             snapshot = result.snapshot;
@@ -136,10 +144,12 @@ describe('properties', () => {
         }
         expect(storeRun(replay(PROCEDURE, log))).toEqual(storeRun(snapshot));
         longest = Math.max(longest, log.length);
+        deepest = Math.max(deepest, snapshot.context.cursor);
       }),
       { ...SEED, numRuns: 60 },
     );
     // The walk must actually get somewhere, or the property above says nothing.
-    expect(longest).toBeGreaterThan(5);
+    expect(longest).toBeGreaterThan(30);
+    expect(deepest).toBeGreaterThan(PROCEDURE.findIndex((s) => s.kind === 'hold-point'));
   });
 });
