@@ -3,7 +3,9 @@
  * by path (which fails for .ts under vitest and after a build). Add new ones at the end.
  */
 import { Migration20261201000000Foundation } from './Migration20261201000000Foundation';
+import { Migration20261201100000Procedures } from './Migration20261201100000Procedures';
 
 export const migrationsList = [
   { name: 'Migration20261201000000Foundation', class: Migration20261201000000Foundation },
+  { name: 'Migration20261201100000Procedures', class: Migration20261201100000Procedures },
 ];
