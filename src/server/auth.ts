@@ -5,6 +5,7 @@
 import { betterAuth } from 'better-auth';
 import { organization } from 'better-auth/plugins';
 import { ac, roles } from '../lib/access';
+import { MAX_PASSWORD_LENGTH, MIN_PASSWORD_LENGTH } from '../domain/account';
 import { config, trustedOrigins } from './config';
 import { sendMail } from './mailer';
 import { pgPool } from './pg-pool';
@@ -19,7 +20,8 @@ function createAuth() {
     trustedOrigins: trustedOrigins(c),
     emailAndPassword: {
       enabled: true,
-      minPasswordLength: 10,
+      minPasswordLength: MIN_PASSWORD_LENGTH,
+      maxPasswordLength: MAX_PASSWORD_LENGTH,
       resetPasswordTokenExpiresIn: 60 * 60,
       sendResetPassword: async ({ user, url }) => {
         await sendMail({
