@@ -1,10 +1,10 @@
-/** Reads the mail catcher's inbox over its HTTP API (maildev: /email, /email/:id). */
+/** Reads the mail catcher's inbox over its HTTP API (maildev 3: /api/email, /api/email/:id). */
 const MAIL_API = process.env.MAIL_API ?? 'http://127.0.0.1:1080';
 
 export type CaughtMail = { id: string; subject: string; text: string; html?: string; to: Array<{ address: string }>; attachments?: Array<{ fileName: string; contentType: string; generatedFileName: string }> };
 
 export async function listMail(): Promise<CaughtMail[]> {
-  const res = await fetch(`${MAIL_API}/email`);
+  const res = await fetch(`${MAIL_API}/api/email`);
   if (!res.ok) throw new Error(`inbox answered ${res.status}`);
   return (await res.json()) as CaughtMail[];
 }
@@ -28,7 +28,7 @@ export function linkIn(mail: CaughtMail, prefix: string): string {
 }
 
 export async function attachment(mail: CaughtMail, generatedFileName: string): Promise<Buffer> {
-  const res = await fetch(`${MAIL_API}/email/${mail.id}/attachment/${encodeURIComponent(generatedFileName)}`);
+  const res = await fetch(`${MAIL_API}/api/email/${mail.id}/attachment/${encodeURIComponent(generatedFileName)}`);
   if (!res.ok) throw new Error(`attachment answered ${res.status}`);
   return Buffer.from(await res.arrayBuffer());
 }
