@@ -15,6 +15,7 @@ function updateCurrent(ctx: RunContext, change: (record: StepRecord) => StepReco
 
 const by = (ev: RunEvent) => ev.actor.userId;
 
+/** One context update per machine action, named as the action is. */
 export const UPDATES = {
   start: (ctx: RunContext, ev: RunEvent) =>
     updateCurrent(ctx, (r) => ({ ...r, started: true, startedBy: by(ev), hazardsAcknowledged: ev.type === 'step.start' ? ev.hazards : [] })),

@@ -7,6 +7,7 @@ import { disposition, hazard, role, torqueQuantity } from '../procedure/schema';
 
 /** Who sent the event: the member and the role they act in. */
 export const runActor = z.object({ userId: z.string().trim().min(1).max(80), role });
+/** A parsed actor. */
 export type RunActor = z.infer<typeof runActor>;
 
 const stepId = z.string().min(1).max(40);
@@ -20,12 +21,15 @@ export const tagEntry = z.object({
   disposition,
   bin: z.string().trim().max(60).optional(),
 });
+/** A parsed tag entry. */
 export type TagEntry = z.infer<typeof tagEntry>;
 
 /** Deviation kinds: skip a step, or accept readings that are out of spec. */
 export const deviationKind = z.enum(['skip', 'out-of-spec']);
+/** skip or out-of-spec. */
 export type DeviationKind = z.infer<typeof deviationKind>;
 
+/** Every event a run accepts, discriminated on `type`; every event names its step and its actor. */
 export const runEvent = z.discriminatedUnion('type', [
   /** `hazards` acknowledges the step's hazard cautions; a step with hazards needs all of them. */
   z.object({ type: z.literal('step.start'), ...head, hazards: z.array(hazard).max(20).default([]) }),
@@ -45,8 +49,10 @@ export const runEvent = z.discriminatedUnion('type', [
 export type RunEvent = z.infer<typeof runEvent>;
 /** A run event as a client may send it (defaults not yet applied). */
 export type RunEventInput = z.input<typeof runEvent>;
+/** The dotted event names. */
 export type RunEventType = RunEvent['type'];
 /** The event of one type. */
 export type RunEventOf<T extends RunEventType> = Extract<RunEvent, { type: T }>;
 
+/** The dotted event names, in schema order. */
 export const RUN_EVENT_TYPES = runEvent.options.map((o) => o.shape.type.value) as readonly RunEventType[];

@@ -153,3 +153,10 @@ describe('properties', () => {
     expect(deepest).toBeGreaterThan(PROCEDURE.findIndex((s) => s.kind === 'hold-point'));
   });
 });
+
+describe('applyEvent on a corrupt log', () => {
+  it('throws: the stored log is at fault, not the incoming event', () => {
+    const corrupt = [FULL_LOG[1] as RunEvent];
+    expect(() => applyEvent(PROCEDURE, corrupt, FULL_LOG[0])).toThrowError(/Log entry 1/);
+  });
+});

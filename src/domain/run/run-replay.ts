@@ -51,7 +51,7 @@ export function refusalFor(snapshot: RunSnapshot, event: RunEvent): Refusal | nu
 /** The result of applying one event: the next snapshot, or a refusal that says what is expected. */
 export type ApplyResult = { ok: true; snapshot: RunSnapshot; event: RunEvent } | ({ ok: false } & Refusal);
 
-/** Validate and apply one incoming event (any JSON) to a stored state or a log; never throws for a refusal. */
+/** Validate and apply one incoming event (any JSON) to a stored state or a valid log; never throws for a refused event. */
 export function applyEvent(steps: Step[], snapshotOrLog: StoredRun | readonly RunEvent[], input: unknown): ApplyResult {
   const parsed = runEvent.safeParse(input);
   if (!parsed.success) {
@@ -60,8 +60,9 @@ export function applyEvent(steps: Step[], snapshotOrLog: StoredRun | readonly Ru
     return { ok: false, code: 'invalid-input', message: `${where}${issue?.message ?? 'Not a run event'}` };
   }
   const event = parsed.data;
+  // A corrupt stored log is the server's problem, not this event's: replay throws for it.
+  const before = isLog(snapshotOrLog) ? replay(steps, snapshotOrLog) : restoreRun(steps, snapshotOrLog);
   try {
-    const before = isLog(snapshotOrLog) ? replay(steps, snapshotOrLog) : restoreRun(steps, snapshotOrLog);
     const refusal = refusalFor(before, event);
     if (refusal) return { ok: false, ...refusal };
     return { ok: true, snapshot: transition(machineFor(steps), before, event)[0], event };

@@ -63,6 +63,7 @@ function readingProblem(ctx: RunContext, ev: RunEvent): string | null {
   }
 }
 
+/** Every rule by name: the machine's guards and the refusals explained from them. */
 export const RULES = {
   onCurrentStep: {
     test: (ctx, ev) => current(ctx)?.step.id === ev.stepId,
