@@ -5,6 +5,7 @@ export default getViteConfig({
   test: {
     include: ['src/**/*.test.ts', 'tests/integration/**/*.int.test.ts'],
     environment: 'node',
+    setupFiles: ['tests/setup/fast-check.ts'],
     testTimeout: 30_000,
     hookTimeout: 60_000,
     // Integration files share one database; run files one at a time so they never race.
