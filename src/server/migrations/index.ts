@@ -4,8 +4,10 @@
  */
 import { Migration20261201000000Foundation } from './Migration20261201000000Foundation';
 import { Migration20261201100000Procedures } from './Migration20261201100000Procedures';
+import { Migration20261201200000Jobs } from './Migration20261201200000Jobs';
 
 export const migrationsList = [
   { name: 'Migration20261201000000Foundation', class: Migration20261201000000Foundation },
   { name: 'Migration20261201100000Procedures', class: Migration20261201100000Procedures },
+  { name: 'Migration20261201200000Jobs', class: Migration20261201200000Jobs },
 ];
