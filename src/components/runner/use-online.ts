@@ -1,0 +1,20 @@
+/** Whether the browser believes it is online, kept in step with TanStack Query's onlineManager. */
+import { useSyncExternalStore } from 'react';
+import { onlineManager } from '@tanstack/react-query';
+
+const subscribe = (notify: () => void) => {
+  window.addEventListener('online', notify);
+  window.addEventListener('offline', notify);
+  return () => {
+    window.removeEventListener('online', notify);
+    window.removeEventListener('offline', notify);
+  };
+};
+
+export function useOnline(): boolean {
+  return useSyncExternalStore(
+    subscribe,
+    () => navigator.onLine && onlineManager.isOnline(),
+    () => true,
+  );
+}
