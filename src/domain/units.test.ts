@@ -5,11 +5,15 @@ import { DomainError } from './errors';
 import {
   ALL_UNITS,
   UNIT_LABELS,
+  compareQuantities,
   convert,
   decimalsOf,
   dimensionOf,
   formatQuantity,
   formatQuantityExact,
+  isAngleUnit,
+  isLengthUnit,
+  isTorqueUnit,
   parseQuantity,
   parseQuantityOf,
   parseUnit,
@@ -306,5 +310,24 @@ describe('formatQuantity', () => {
     const q = parseQuantity(text);
     expect(q.unit).toBe(u);
     expect(q.value).toBeCloseTo(roundTo(v, 0.01), 9);
+  });
+});
+
+describe('unit guards and comparison', () => {
+  it.each<[unknown, boolean, boolean, boolean]>([
+    ['N·m', true, false, false],
+    ['thou', false, true, false],
+    ['turn', false, false, true],
+    ['lb', false, false, false],
+    [undefined, false, false, false],
+  ])('%s', (u, t, l, a) => {
+    expect(isTorqueUnit(u)).toBe(t);
+    expect(isLengthUnit(u)).toBe(l);
+    expect(isAngleUnit(u)).toBe(a);
+  });
+  it('compareQuantities across units', () => {
+    expect(compareQuantities({ value: 1, unit: 'in' }, { value: 25, unit: 'mm' })).toBeGreaterThan(0);
+    expect(compareQuantities({ value: 100, unit: 'ft·lbf' }, { value: 136, unit: 'N·m' })).toBeLessThan(0);
+    expectDomainError(() => compareQuantities({ value: 1, unit: 'in' }, { value: 1, unit: 'deg' }), 'unit-mismatch');
   });
 });
