@@ -127,8 +127,8 @@ describe('clearance = bore − journal (diametral)', () => {
   it('NaN throws', () => expectDomainError(() => clearance(NaN, 1), 'invalid-input'));
 });
 
-// Definition as in Nissan's VQ35DE service manual ("Crankshaft out-of-round and taper"):
-// out-of-round = difference between X and Y (90° apart) at A and at B; taper = difference
+// Definition as in engine service manuals generally (common practice, from memory of the
+// journal-measurement sections of military engine maintenance manuals): out-of-round = difference between X and Y (90° apart) at A and at B; taper = difference
 // between A and B at X and at Y. We report the larger of each pair.
 describe('taperAndOutOfRound', () => {
   describe.each<[string, { a0: number; a90: number; b0: number; b90: number }, number, number]>([

@@ -108,11 +108,11 @@ export function clearance(bore: number, journal: number): number {
  * it (A near one end, B near the other) and at two angles around it (0° and 90°):
  * - taper = the largest difference along the journal at one angle: max(|A0 − B0|, |A90 − B90|);
  * - out-of-round = the largest difference around it in one plane: max(|A0 − A90|, |B0 − B90|).
- * This is the factory-manual definition, e.g. Nissan's VQ35DE service manual (2005 Infiniti
- * FX35, "Crankshaft out-of-round and taper"): measure at four points per journal; out-of-round
- * is the difference between X and Y (90° apart) at A and at B, taper the difference between
- * A and B at X and at Y. It is a two-point diameter method, not ISO 1101 roundness, which
- * would need a roundness instrument.
+ * This is the usual shop definition found in engine service manuals (the military engine
+ * maintenance manuals in REFERENCES.md measure journals the same way; common practice):
+ * four points per journal; out-of-round is the difference between readings 90° apart in one
+ * plane, taper the difference between the two planes at one angle. It is a two-point diameter
+ * method, not ISO 1101 roundness, which would need a roundness instrument.
  */
 export function taperAndOutOfRound(r: { a0: number; a90: number; b0: number; b90: number }): { taper: number; outOfRound: number } {
   if (!r || typeof r !== 'object') throw new DomainError('invalid-input', 'Four diameters are required');

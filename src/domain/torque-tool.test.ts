@@ -15,8 +15,8 @@ function expectDomainError(fn: () => unknown, code: string, message?: RegExp) {
 }
 
 // ISO 6789-1:2017, 5.1.5 maximum permissible deviation, by type, class and the tool's maximum
-// torque. Type II class A (±4 % above 10 N·m, ±6 % at or below) is as summarised in Facom's
-// torque-wrench manual ("Review of ISO 6789"); the other rows are FROM MEMORY of the
+// torque. Type II class A (±4 % above 10 N·m, ±6 % at or below) is as summarised in a tool
+// maker's published review of ISO 6789; the other rows are FROM MEMORY of the
 // standard's table and not checked against a copy of it.
 describe('permissibleDeviation (ISO 6789-1:2017)', () => {
   describe.each<[ToolType, ToolClass, number, number]>([

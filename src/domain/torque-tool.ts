@@ -17,8 +17,7 @@
  *   Type I B, C, E: ±4 %;
  *   Type II B, C, E, F: ±6 %.
  * Type II class A at ±4 % above 10 N·m / ±6 % at or below is confirmed by a tool maker's
- * summary of the standard (Facom's torque-tool manual, "Review of ISO 6789"); the other rows
- * are from memory of the standard's table and should be checked against a copy of it. They
+ * published summary of the standard; the other rows are from memory of the standard's table and should be checked against a copy of it. They
  * live in one table below so a correction is one line.
  *
  * Relative deviation (clause 7) = (tool value − reference) / reference, where the tool value
