@@ -1,0 +1,23 @@
+import { em } from '../../../../server/em';
+import { requireMember } from '../../../../server/guards';
+import { handle, json, readJson } from '../../../../server/http';
+import { eventsQuery, recordEventInput, recordRunEvent, runEventsAfter } from '../../../../server/services/runs.service';
+
+/** Events after `?after=<seq>` (default: all). */
+export const GET = handle(async (ctx) => {
+  const m = requireMember(ctx);
+  const { after } = eventsQuery.parse(Object.fromEntries([...ctx.url.searchParams].filter(([, v]) => v !== '')));
+  return json(await runEventsAfter(await em(), m.shopId, ctx.params.id ?? '', after));
+});
+
+/**
+ * Record one event. The role check depends on the event (work needs `run:record`; approvals,
+ * signatures and send-backs follow the run machine's own role rules), so it runs in the service.
+ */
+export const POST = handle(async (ctx) => {
+  const m = requireMember(ctx);
+  const input = await readJson(ctx.request, recordEventInput);
+  const device = input.device ?? ctx.request.headers.get('x-device')?.trim().slice(0, 120) ?? undefined;
+  const { status, body } = await recordRunEvent(await em(), m, ctx.params.id ?? '', { ...input, device: device || undefined });
+  return json(body, status);
+});

@@ -1,0 +1,177 @@
+/**
+ * Runs and their append-only event log. Every event goes through the run machine
+ * (`applyEvent`) inside one transaction that holds the run row's lock, so the log never forks:
+ * seqs are 1..N without gaps, a retried request (same idempotency key) stores nothing new,
+ * and a client that has not seen the latest event gets the fresh state instead.
+ */
+import { LockMode } from '@mikro-orm/core';
+import type { EntityManager } from '@mikro-orm/postgresql';
+import * as z from 'zod';
+import { acceptsNewRuns, statusOnRunComplete, statusOnRunReopen, statusOnRunStart } from '../../domain/job-status';
+import type { Step } from '../../domain/procedure/schema';
+import { applyEvent, nextExpected, pendingDeviation, replay, runProgress, startRun, stepStates, type RunEvent, type RunSnapshot } from '../../domain/run';
+import { roleCan } from '../../lib/access';
+import { Job, Run, RunEvent as RunEventRow } from '../entities';
+import type { RunEntity, RunStatus } from '../entities/run.entity';
+import type { RunEventEntity } from '../entities/run-event.entity';
+import type { Member } from '../guards';
+import { AppError, notFound } from '../http';
+import { pinnedRevision, revisionForNewRun } from './run-revision';
+import { userNames } from './shop-members';
+
+export const startRunInput = z.object({ revisionId: z.uuid('Choose a released revision') }).strict();
+export const recordEventInput = z.object({
+  event: z.record(z.string(), z.unknown(), 'Send the event as an object'),
+  idempotencyKey: z.uuid('Send a uuid as the idempotency key'),
+  expectedSeq: z.number('Send the last seq you have seen').int().min(0),
+  device: z.string().trim().max(120).optional(),
+  clientAt: z.iso.datetime({ offset: true }).optional(),
+}).strict();
+export const eventsQuery = z.object({ after: z.coerce.number('Give a seq number').int().min(0).default(0) });
+
+/** Events decided by the machine's own role rules (approver, signer, reopener), not by `run:record`. */
+const ROLE_RULED_EVENTS = new Set(['deviation.approve', 'deviation.reject', 'hold.sign', 'run.reopen']);
+
+export type StoredEventDto = { seq: number; type: string; payload: RunEvent; actor: { id: string; name: string; role: string }; device: string | null; recordedAt: string; clientAt: string | null };
+export type RunInfoDto = { id: string; jobId: string; jobCode: string; revisionId: string; procedureName: string; revisionNumber: number; status: RunStatus; lastSeq: number; createdAt: string };
+export type NextDto = ReturnType<typeof nextExpected>;
+export type ProgressDto = ReturnType<typeof runProgress>;
+export type RunDto = {
+  run: RunInfoDto; steps: Step[]; events: StoredEventDto[]; next: NextDto; progress: ProgressDto;
+  stepStates: ReturnType<typeof stepStates>; pendingDeviation: ReturnType<typeof pendingDeviation>;
+};
+export type RecordedDto = { event: StoredEventDto; lastSeq: number; next: NextDto; progress: ProgressDto };
+
+const runStatusOf = (snapshot: RunSnapshot): RunStatus =>
+  runProgress(snapshot).complete ? 'complete' : snapshot.context.reopens.length > 0 ? 'reopened' : 'active';
+
+/** Keeps the run row's list fields (status, progress, next prompt) in step with the machine. */
+function summarise(run: RunEntity, snapshot: RunSnapshot): void {
+  const progress = runProgress(snapshot);
+  run.status = runStatusOf(snapshot);
+  run.doneSteps = progress.done;
+  run.totalSteps = progress.total;
+  run.nextDescription = nextExpected(snapshot)?.description.slice(0, 300) ?? null;
+}
+
+async function loadRun(em: EntityManager, shopId: string, runId: string, lock = false): Promise<RunEntity> {
+  if (!z.uuid().safeParse(runId).success) throw notFound('That run');
+  const run = await em.findOne(Run, { id: runId, shopId }, lock ? { lockMode: LockMode.PESSIMISTIC_WRITE, refresh: true } : {});
+  if (!run) throw notFound('That run');
+  return run;
+}
+
+async function toEventDtos(em: EntityManager, rows: RunEventEntity[]): Promise<StoredEventDto[]> {
+  const names = await userNames(em, rows.map((r) => r.actorId));
+  return rows.map((r) => ({
+    seq: r.seq, type: r.type, payload: r.payload,
+    actor: { id: r.actorId, name: names.get(r.actorId) ?? 'Former member', role: r.actorRole },
+    device: r.device ?? null, recordedAt: r.recordedAt.toISOString(), clientAt: r.clientAt?.toISOString() ?? null,
+  }));
+}
+
+const logOf = (em: EntityManager, run: RunEntity, afterSeq = 0) => em.find(RunEventRow, { run: run.id, seq: { $gt: afterSeq } }, { orderBy: { seq: 'asc' } });
+
+async function runInfo(em: EntityManager, run: RunEntity): Promise<RunInfoDto> {
+  const job = await em.findOneOrFail(Job, { id: run.job.id, shopId: run.shopId });
+  return { id: run.id, jobId: job.id, jobCode: job.code, revisionId: run.revisionId, procedureName: run.procedureName, revisionNumber: run.revisionNumber, status: run.status, lastSeq: run.lastSeq, createdAt: run.createdAt.toISOString() };
+}
+
+/** Starts a run of a released revision on a job; the run stays pinned to that revision. */
+export async function startJobRun(em: EntityManager, member: Member, jobId: string, revisionId: string): Promise<RunDto> {
+  if (!z.uuid().safeParse(jobId).success) throw notFound('That job');
+  const runId = await em.transactional(async (tem) => {
+    const job = await tem.findOne(Job, { id: jobId, shopId: member.shopId }, { lockMode: LockMode.PESSIMISTIC_WRITE });
+    if (!job) throw notFound('That job');
+    const revision = await revisionForNewRun(tem, member.shopId, revisionId);
+    if (!acceptsNewRuns(job.status)) throw new AppError('conflict', `Job ${job.code} is ${job.status === 'closed' ? 'closed' : 'waiting for sign-off'}; no new runs can start on it.`);
+    const run = tem.create(Run, { shopId: member.shopId, job, revisionId: revision.id, procedureName: revision.procedureName, revisionNumber: revision.number, status: 'active', lastSeq: 0, createdById: member.userId });
+    summarise(run, startRun(revision.steps));
+    job.status = statusOnRunStart(job.status);
+    await tem.flush();
+    return run.id;
+  });
+  return getRun(em, member.shopId, runId);
+}
+
+/** The run as the runner needs it: pinned steps, the whole log, and the state rebuilt from it. */
+export async function getRun(em: EntityManager, shopId: string, runId: string): Promise<RunDto> {
+  const run = await loadRun(em, shopId, runId);
+  const [revision, rows] = await Promise.all([pinnedRevision(em, shopId, run.revisionId), logOf(em, run)]);
+  const snapshot = replay(revision.steps, rows.map((r) => r.payload));
+  return {
+    run: await runInfo(em, run), steps: revision.steps, events: await toEventDtos(em, rows),
+    next: nextExpected(snapshot), progress: runProgress(snapshot), stepStates: stepStates(snapshot), pendingDeviation: pendingDeviation(snapshot),
+  };
+}
+
+/** Events after a seq, for a client catching up. */
+export async function runEventsAfter(em: EntityManager, shopId: string, runId: string, after: number): Promise<{ events: StoredEventDto[]; lastSeq: number }> {
+  const run = await loadRun(em, shopId, runId);
+  return { events: await toEventDtos(em, await logOf(em, run, after)), lastSeq: run.lastSeq };
+}
+
+/** The log with who, where and when, and the revision the run ran under. */
+export async function runHistory(em: EntityManager, shopId: string, runId: string) {
+  const run = await loadRun(em, shopId, runId);
+  const [revision, rows] = await Promise.all([pinnedRevision(em, shopId, run.revisionId), logOf(em, run)]);
+  return {
+    run: await runInfo(em, run),
+    revision: { id: revision.id, number: revision.number, status: revision.status, procedureId: revision.procedureId, procedureName: revision.procedureName },
+    events: await toEventDtos(em, rows),
+  };
+}
+
+type Outcome =
+  | { kind: 'stored'; row: RunEventEntity; snapshot: RunSnapshot; lastSeq: number; created: boolean }
+  | { kind: 'stale'; lastSeq: number; rows: RunEventEntity[] };
+
+/**
+ * Records one event from a member: the server fills the actor from the session. Answers
+ * `{ status: 201 }` for a new event, `{ status: 200 }` for a retry of a stored one.
+ */
+export async function recordRunEvent(em: EntityManager, member: Member, runId: string, input: z.infer<typeof recordEventInput>): Promise<{ status: 200 | 201; body: RecordedDto }> {
+  const type = typeof input.event.type === 'string' ? input.event.type : '';
+  if (!ROLE_RULED_EVENTS.has(type) && !roleCan(member.role, { run: ['record'] })) throw new AppError('forbidden', `Your role (${member.role}) may not record work on a run.`);
+  const event = { ...input.event, actor: { userId: member.userId, role: member.role } };
+
+  const outcome = await em.transactional(async (tem): Promise<Outcome> => {
+    const run = await loadRun(tem, member.shopId, runId, true);
+    const [revision, rows] = await Promise.all([pinnedRevision(tem, member.shopId, run.revisionId), logOf(tem, run)]);
+    const earlier = rows.find((r) => r.idempotencyKey === input.idempotencyKey);
+    if (earlier) {
+      if (earlier.type !== type || earlier.payload.stepId !== input.event.stepId) throw new AppError('conflict', 'This idempotency key was already used for a different event; send a new key for a new event.');
+      return { kind: 'stored', row: earlier, snapshot: replay(revision.steps, rows.map((r) => r.payload)), lastSeq: run.lastSeq, created: false };
+    }
+    if (input.expectedSeq !== run.lastSeq) return { kind: 'stale', lastSeq: run.lastSeq, rows: rows.filter((r) => r.seq > input.expectedSeq) };
+    const job = await tem.findOneOrFail(Job, { id: run.job.id, shopId: member.shopId });
+    if (job.status === 'closed') throw new AppError('conflict', `Job ${job.code} is closed; nothing more can be recorded on its runs.`);
+
+    const result = applyEvent(revision.steps, rows.map((r) => r.payload), event);
+    if (!result.ok) {
+      const before = replay(revision.steps, rows.map((r) => r.payload));
+      if (result.code === 'invalid-input') throw new AppError('bad-request', result.message, { next: nextExpected(before) });
+      throw new AppError(result.code, result.message, { next: nextExpected(before) });
+    }
+    const wasComplete = run.status === 'complete';
+    const row = tem.create(RunEventRow, {
+      run, seq: run.lastSeq + 1, type: result.event.type, payload: result.event, actorId: member.userId, actorRole: member.role,
+      device: input.device ?? null, idempotencyKey: input.idempotencyKey, clientAt: input.clientAt ? new Date(input.clientAt) : null,
+    });
+    run.lastSeq = row.seq;
+    summarise(run, result.snapshot);
+    if (run.status === 'complete' && !wasComplete) {
+      const activeRuns = await tem.count(Run, { job: job.id, id: { $ne: run.id }, status: { $ne: 'complete' } });
+      job.status = statusOnRunComplete(job.status, { activeRuns });
+    }
+    if (result.event.type === 'run.reopen') job.status = statusOnRunReopen(job.status);
+    await tem.flush();
+    return { kind: 'stored', row, snapshot: result.snapshot, lastSeq: run.lastSeq, created: true };
+  });
+
+  if (outcome.kind === 'stale') {
+    throw new AppError('conflict', 'Someone else recorded on this run first; here is the fresh state.', { lastSeq: outcome.lastSeq, events: await toEventDtos(em, outcome.rows) });
+  }
+  const [dto] = await toEventDtos(em, [outcome.row]);
+  return { status: outcome.created ? 201 : 200, body: { event: dto!, lastSeq: outcome.lastSeq, next: nextExpected(outcome.snapshot), progress: runProgress(outcome.snapshot) } };
+}
