@@ -109,7 +109,7 @@ export function useRunSync(initial: RunDto, viewer: Viewer) {
     async (entry: OutboxEntry): Promise<SendOutcome> => {
       try {
         const res = await api<RecordedDto>(`/api/runs/${runId}/events`, {
-          body: { event: entry.event, idempotencyKey: entry.key, expectedSeq: entry.expectedSeq, ...(entry.device ? { device: entry.device } : {}) },
+          body: { event: entry.event, idempotencyKey: entry.key, expectedSeq: entry.expectedSeq, clientAt: entry.queuedAt, ...(entry.device ? { device: entry.device } : {}) },
         });
         setServer(merge(eventsRef.current, [res.event]));
         setQueue(pendingRef.current.filter((p) => p.key !== entry.key));
