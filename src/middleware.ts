@@ -8,6 +8,7 @@ import { initORM } from './server/db';
 import { auth } from './server/auth';
 import { activeMembership } from './server/membership';
 import { errorResponse } from './server/http';
+import { countingSql, withSqlCount } from './server/sql-counter';
 
 const PUBLIC_PREFIXES = ['/sign-in', '/forgot-password', '/reset-password', '/invitation/', '/api/auth/', '/api/health', '/share/', '/api/share/', '/_astro/', '/_image', '/favicon', '/fonts/'];
 const isPublic = (path: string) => PUBLIC_PREFIXES.some((p) => path === p || path.startsWith(p)) || path === '/404' || path === '/500';
@@ -54,4 +55,13 @@ const securityHeaders = defineMiddleware(async (_ctx, next) => {
   return res;
 });
 
-export const onRequest = sequence(securityHeaders, withOrmContext, withSession, signInGate);
+/** Bench mode only: reports the request's SQL statement count in a response header. */
+const sqlCount = defineMiddleware(async (_ctx, next) => {
+  if (!countingSql) return next();
+  const { result, statements } = await withSqlCount(async () => next());
+  const res = new Response(result.body, result);
+  res.headers.set('x-sql-statements', String(statements));
+  return res;
+});
+
+export const onRequest = sequence(sqlCount, securityHeaders, withOrmContext, withSession, signInGate);

@@ -2,12 +2,16 @@
 import { MikroORM, type Options } from '@mikro-orm/postgresql';
 import baseConfig from '../../mikro-orm.config';
 import { config } from './config';
+import { countStatement, countingSql } from './sql-counter';
 
 let orm: Promise<MikroORM> | undefined;
 
 /** The cached ORM; the first call connects. */
 export function initORM(options: Options = {}): Promise<MikroORM> {
-  orm ??= MikroORM.init({ ...baseConfig, clientUrl: config().DATABASE_URL, ...options });
+  orm ??= MikroORM.init({ ...baseConfig, clientUrl: config().DATABASE_URL, ...options }).then((o) => {
+    if (countingSql) o.em.getConnection().getKnex().on('query', countStatement);
+    return o;
+  });
   return orm;
 }
 

@@ -1,10 +1,17 @@
 /** The one pg pool that better-auth uses for its tables (MikroORM has its own connections). */
 import pg from 'pg';
 import { config } from './config';
+import { countStatement, countingSql } from './sql-counter';
 
 let pool: pg.Pool | undefined;
 
 export function pgPool(): pg.Pool {
-  pool ??= new pg.Pool({ connectionString: config().DATABASE_URL, max: 10 });
+  if (!pool) {
+    pool = new pg.Pool({ connectionString: config().DATABASE_URL, max: 10 });
+    if (countingSql) {
+      const query = pool.query.bind(pool) as (...a: unknown[]) => unknown;
+      (pool as unknown as { query: (...a: unknown[]) => unknown }).query = (...a: unknown[]) => (countStatement(), query(...a));
+    }
+  }
   return pool;
 }
