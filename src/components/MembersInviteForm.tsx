@@ -5,7 +5,7 @@ import * as z from 'zod';
 import { ROLE_LABELS, SHOP_ROLES, type ShopRole } from '../lib/access';
 
 const schema = z.object({
-  email: z.string().trim().toLowerCase().email('Enter the e-mail address to send the invitation to'),
+  email: z.string().trim().toLowerCase().pipe(z.email('Enter the e-mail address to send the invitation to')),
   role: z.enum(SHOP_ROLES, 'Choose a role'),
 });
 type Values = z.infer<typeof schema>;

@@ -7,7 +7,7 @@ import { authClient } from '../lib/auth-client';
 import { StatusRegion, type Status } from './ui/StatusRegion';
 import { authMessage } from './MembersMessages';
 
-const schema = z.object({ email: z.string().trim().email('Enter your e-mail address') });
+const schema = z.object({ email: z.string().trim().pipe(z.email('Enter your e-mail address')) });
 type Values = z.infer<typeof schema>;
 
 export const SENT = 'If that address has an account, a message is on its way. The link in it works for one hour.';
