@@ -95,6 +95,8 @@ type NewProcedure = { key?: string; name: string; kind: ProcedureEntity['kind'];
 async function createWithDraft(em: EntityManager, actor: Actor, meta: NewProcedure, content: RevisionContent, note = ''): Promise<{ procedure: ProcedureDto; draft: RevisionDto }> {
   try {
     const ids = await em.transactional(async (tx) => {
+      // Key choice is serialised per shop, so parallel imports of one file get -2, -3 … rather than a clash.
+      await tx.getConnection().execute('select pg_advisory_xact_lock(hashtext(?))', [`procedure-key:${actor.shopId}`], 'all', tx.getTransactionContext());
       const key = await freeKey(tx, actor.shopId, meta.key ?? procedureKeyFrom(meta.name));
       const procedure = tx.create(Procedure, { shopId: actor.shopId, key, name: meta.name, kind: meta.kind, engineFamily: meta.engineFamily, description: meta.description, derivedFromRevisionId: meta.derivedFromRevisionId ?? null });
       const draft = tx.create(ProcedureRevision, { procedure, shopId: actor.shopId, status: 'draft', content, note, version: 1, contentHash: contentHashOf(content), createdById: actor.userId });
@@ -104,7 +106,10 @@ async function createWithDraft(em: EntityManager, actor: Actor, meta: NewProcedu
     const draft = await loadRevision(em, actor, ids.draftId);
     return { procedure: await getProcedure(em, actor, ids.procedureId), draft: revisionDto(draft, draft.procedure, await peopleById(em, peopleOf([draft]))) };
   } catch (e) {
-    if (e instanceof UniqueConstraintViolationException) throw new AppError('conflict', 'Another procedure took that key a moment ago; try again.');
+    if (e instanceof UniqueConstraintViolationException) {
+      console.error('[procedures] unexpected unique violation while creating a procedure', e);
+      throw new AppError('conflict', 'Another procedure took that key a moment ago; try again.');
+    }
     throw e;
   }
 }
