@@ -313,3 +313,22 @@ describe('procedure files', () => {
     expect(againInA.procedure.key).toMatch(new RegExp(`^${procedure.key}-\\d+$`));
   });
 });
+
+describe('demo seed step', () => {
+  it('imports every procedures/*.json file and releases revision 1 of each; the assembly points at the teardown', async () => {
+    const { seedDemoProcedures } = await import('../../src/server/seeders/demo-procedures');
+    const shop = await createShop('Demo seed');
+    const users = Object.fromEntries(Object.entries(shop.members).map(([role, m]) => [role, m.userId]));
+    await seedDemoProcedures(orm.em.fork(), { shopId: shop.id, users });
+    const list = await callRoute(proceduresRoute.GET, { as: as(shop, shop.members.technician) });
+    const byKey = Object.fromEntries(list.body.procedures.map((p: { key: string }) => [p.key, p]));
+    expect(Object.keys(byKey).sort()).toEqual(['assembly-demo-diesel', 'teardown-demo-diesel']);
+    for (const p of Object.values(byKey) as Array<{ latestReleased: { number: number } | null; draft: unknown }>) {
+      expect(p.latestReleased?.number).toBe(1);
+      expect(p.draft).toBeNull();
+    }
+    const assembly = await callRoute(procedureRoute.GET, { params: { id: byKey['assembly-demo-diesel'].id }, as: as(shop, shop.members.lead) });
+    expect(assembly.body.derivedFrom).toMatchObject({ procedureId: byKey['teardown-demo-diesel'].id, number: 1 });
+    expect(assembly.body.revisions[0].releasedBy.id).toBe(shop.members.lead.userId);
+  });
+});

@@ -3,8 +3,9 @@
  * Each step receives the demo shop's id and the user id of each role.
  */
 import type { EntityManager } from '@mikro-orm/core';
+import { seedDemoProcedures } from './demo-procedures';
 
 export type DemoContext = { shopId: string; users: Record<string, string> };
 export type DemoSeedStep = (em: EntityManager, ctx: DemoContext) => Promise<void>;
 
-export const demoSeedSteps: DemoSeedStep[] = [];
+export const demoSeedSteps: DemoSeedStep[] = [seedDemoProcedures];
