@@ -6,6 +6,7 @@ export type NavItem = { href: string; label: string; roles: readonly ShopRole[] 
 export const NAV: NavItem[] = [
   { href: '/', label: 'Home', roles: ['owner', 'lead', 'technician', 'reviewer'] },
   { href: '/jobs', label: 'Jobs', roles: ['owner', 'lead', 'technician', 'reviewer'] },
+  { href: '/procedures', label: 'Procedures', roles: ['owner', 'lead', 'technician', 'reviewer'] },
   { href: '/shop/members', label: 'Members', roles: ['owner'] },
 ];
 
