@@ -1,0 +1,13 @@
+/** A free loopback port chosen by the kernel. */
+import net from 'node:net';
+
+export function freePortTs(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = net.createServer();
+    srv.once('error', reject);
+    srv.listen(0, '127.0.0.1', () => {
+      const { port } = srv.address() as net.AddressInfo;
+      srv.close(() => resolve(port));
+    });
+  });
+}

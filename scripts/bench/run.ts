@@ -1,0 +1,95 @@
+/**
+ * The benchmark proper (started by scripts/bench.mjs with the app running in bench mode):
+ * seeds a large shop, then prints each figure beside its baseline from this same run.
+ * Targets are reported, not asserted.
+ */
+import { DEMO_PASSWORD } from '../../src/server/seeders/demo-people';
+import { startBaseline } from './baseline-server';
+import { APP_URL, api, ok, signIn } from './http';
+import { happyPath, seedLargeShop } from './large-shop';
+import { loadGet, loadPost, type LoadResult } from './load';
+import { measurePage } from './pages';
+import { freePortTs } from './ports';
+
+const seconds = Number(process.env.BENCH_SECONDS ?? 8);
+const rows: Array<[string, string, string, string, string]> = [];
+const fmt = (n: number, d = 0) => n.toLocaleString('en-US', { maximumFractionDigits: d, minimumFractionDigits: d });
+const ratio = (a: number, b: number) => (b ? `${fmt((a / b) * 100)} %` : '—');
+const row = (what: string, ours: string, base: string, r: string, target = '') => rows.push([what, ours, base, r, target]);
+
+const t0 = Date.now();
+console.log('\nSeeding the large shop through the API …');
+const lead = await signIn('lars.lead@demo.torquetrail.test', DEMO_PASSWORD);
+const tech = await signIn('tess.tech@demo.torquetrail.test', DEMO_PASSWORD);
+const members = (await ok(tech, 'GET', '/api/jobs')).jobs; // warms the route
+void members;
+const techId = (await (await fetch(`${APP_URL}/api/auth/get-session`, { headers: { cookie: tech } })).json()).user.id as string;
+const shop = await seedLargeShop(lead, techId, { jobs: 200, postRuns: 32 });
+const events500 = happyPath(shop.p500.steps);
+// Give the read runs a realistic log: 260 events on the 500-step run, the whole 5-step run.
+const post = async (runId: string, events: unknown[]) => {
+  let seq = 0;
+  for (const event of events) {
+    const r = await ok(tech, 'POST', `/api/runs/${runId}/events`, { event, idempotencyKey: crypto.randomUUID(), expectedSeq: seq });
+    seq = r.lastSeq;
+  }
+};
+await post(shop.read500, events500.slice(0, 260));
+await post(shop.read5, happyPath(shop.p5.steps).slice(0, 60));
+console.log(`  seeded in ${fmt((Date.now() - t0) / 1000, 1)} s: 200 jobs, procedures of 500/300/5 steps with 64-fastener maps, ${shop.postRuns.length * 2 + 2} runs`);
+
+// SQL statements per request, small against large.
+const sql = async (path: string) => Number((await api(tech, 'GET', path)).headers.get('x-sql-statements') ?? NaN);
+const leadSql = async (path: string) => Number((await api(lead, 'GET', path)).headers.get('x-sql-statements') ?? NaN);
+const s5 = await sql(`/api/runs/${shop.read5}`), s500 = await sql(`/api/runs/${shop.read500}`);
+row('SQL per run-state read (5 → 500 steps)', `${s5} → ${s500}`, '6 (baseline)', s5 === s500 ? 'constant' : 'GROWS', 'constant');
+const j = await sql('/api/jobs');
+row('SQL per job list (200 jobs)', String(j), '—', '', 'constant');
+const pl5 = await leadSql(`/api/procedures/${shop.p5.procedureId}`), pl500 = await leadSql(`/api/procedures/${shop.p500.procedureId}`);
+row('SQL per procedure load (5 → 500 steps)', `${pl5} → ${pl500}`, '—', pl5 === pl500 ? 'constant' : 'GROWS', 'constant');
+const r5 = await leadSql(`/api/revisions/${shop.p5.revisionId}`), r500 = await leadSql(`/api/revisions/${shop.p500.revisionId}`);
+row('SQL per revision load (5 → 500 steps)', `${r5} → ${r500}`, '—', r5 === r500 ? 'constant' : 'GROWS', 'constant');
+
+// HTTP load: ours against the bare node:http + pg server doing the same SQL.
+const basePort = await freePortTs();
+const baseline = await startBaseline(process.env.DATABASE_URL!, basePort);
+const baseUrl = `http://127.0.0.1:${basePort}`;
+console.log(`Load: ${seconds} s each at 32 connections …`);
+const line = (what: string, a: LoadResult, b: LoadResult, target: string) => {
+  row(`${what} req/s`, fmt(a.rps), fmt(b.rps), ratio(a.rps, b.rps), target);
+  row(`${what} p50 / p99 ms`, `${a.p50} / ${a.p99}`, `${b.p50} / ${b.p99}`, '', '');
+  if (a.non2xx || b.non2xx) row(`${what} non-2xx responses`, String(a.non2xx), String(b.non2xx), '', '0');
+};
+const oursGet = await loadGet(`${APP_URL}/api/runs/${shop.read500}`, tech, seconds);
+const baseGet = await loadGet(`${baseUrl}/runs/${shop.read500}`, tech, seconds);
+line('Run-state read (500 steps, 260 events)', oursGet, baseGet, '≥ 70 %');
+const oursPost = await loadPost(APP_URL, '/api', shop.postRuns, events500, tech, APP_URL, seconds);
+const basePost = await loadPost(baseUrl, '', shop.basePostRuns, events500, tech, baseUrl, seconds);
+line('Step event post', oursPost, basePost, '≥ 50 %');
+await baseline.close();
+
+// Pages in headless Chromium.
+const runner = await measurePage(APP_URL, tech, `/runs/${shop.read500}`);
+row('Runner page JS (gzip), 500-step run', `${fmt(runner.jsGzipKB, 1)} KB in ${runner.jsFiles} files`, '—', '', '≤ 90 KB');
+row('Runner interactive, 500-step run', `${fmt(runner.interactiveMs)} ms`, '—', '', '');
+const editor = await measurePage(APP_URL, lead, `/revisions/${shop.p300DraftId}/edit`);
+row('Editor page JS (gzip), 300 steps', `${fmt(editor.jsGzipKB, 1)} KB in ${editor.jsFiles} files`, '—', '', '');
+row('Editor load until interactive, 300 steps', `${fmt(editor.interactiveMs)} ms`, '—', '', '');
+
+// Figures other parts provide, when present.
+for (const extra of ['./upload-figure', './report-figure']) {
+  try {
+    const mod = (await import(extra)) as { figure: (ctx: { lead: string; tech: string; shop: typeof shop }) => Promise<Array<[string, string, string, string, string]>> };
+    rows.push(...(await mod.figure({ lead, tech, shop })));
+  } catch (e) {
+    if ((e as { code?: string }).code !== 'ERR_MODULE_NOT_FOUND') row(`${extra} failed`, String(e).slice(0, 60), '', '', '');
+  }
+}
+
+const widths = [0, 1, 2, 3, 4].map((i) => Math.max(...[['figure', 'Torquetrail', 'baseline (same run)', 'ratio', 'target'], ...rows].map((r) => r[i]!.length)));
+const print = (r: string[]) => console.log(`  ${r.map((c, i) => c.padEnd(widths[i]!)).join('  ')}`);
+console.log('');
+print(['figure', 'Torquetrail', 'baseline (same run)', 'ratio', 'target']);
+print(widths.map((w) => '-'.repeat(w)));
+rows.forEach(print);
+console.log(`\n  bench wall time ${fmt((Date.now() - t0) / 1000, 1)} s\n`);
