@@ -259,3 +259,38 @@ describe('shop scoping', () => {
     expect((await callRoute(runRoute.GET, { params: { id: 'not-a-uuid' }, as: bTech })).status).toBe(404);
   });
 });
+
+describe('demo seed', () => {
+  it('seeds a job part-way through its teardown and one waiting only for the final sign-off, both replayable', async () => {
+    const { DemoSeeder } = await import('../../src/server/seeders/demo.seeder');
+    const { DEMO_SHOP, DEMO_MEMBERS } = await import('../../src/server/seeders/demo-people');
+    await orm.seeder.seed(DemoSeeder);
+    const [shop] = await orm.em.fork().getConnection().execute<Array<{ id: string; name: string }>>(`select id, name from organization where slug = ?`, [DEMO_SHOP.slug]);
+    const users = await orm.em.fork().getConnection().execute<Array<{ id: string; email: string }>>(`select id, email from "user" where email like '%@demo.torquetrail.test'`);
+    const members = Object.fromEntries(DEMO_MEMBERS.map((m) => [m.role, { userId: users.find((u) => u.email === m.email)!.id, name: m.name, email: m.email, role: m.role, headers: new Headers() }])) as TestShop['members'];
+    const demo: TestShop = { id: shop!.id, name: shop!.name, members };
+
+    const jobs = (await callRoute(jobsRoute.GET, { path: `/api/jobs?technician=me`, as: as(demo, 'technician') })).body.jobs;
+    expect(jobs.map((j: { status: string }) => j.status).sort()).toEqual(['awaiting-signoff', 'teardown']);
+    for (const j of jobs) expect(j).toMatchObject({ technicians: [{ name: members.technician.name }], reviewer: { name: members.reviewer.name } });
+
+    const partWay = await callRoute(jobRoute.GET, { params: { id: jobs.find((j: { status: string }) => j.status === 'teardown').id }, as: as(demo, 'technician') });
+    expect(partWay.body.runs).toHaveLength(1);
+    expect(partWay.body.runs[0].next).toMatch(/^Next: pass 1, fastener /);
+    const run = await callRoute(runRoute.GET, { params: { id: partWay.body.runs[0].id }, as: as(demo, 'technician') });
+    expect(run.status).toBe(200);
+    expect(run.body.next.stepId).toBe('td-11-rocker-pedestal-bolts');
+    expect(run.body.progress.done).toBe(10);
+    expect(run.body.events.map((e: { seq: number }) => e.seq)).toEqual(run.body.events.map((_: unknown, i: number) => i + 1));
+
+    const waiting = await callRoute(jobRoute.GET, { params: { id: jobs.find((j: { status: string }) => j.status === 'awaiting-signoff').id }, as: as(demo, 'reviewer') });
+    expect(waiting.body.runs.map((r: { status: string }) => r.status)).toEqual(['complete', 'active']);
+    const build = waiting.body.runs[1];
+    expect(build.progress.done).toBe(build.progress.total - 1);
+    expect(build.next).toBe('Waiting for a reviewer to sign the hold point');
+    const { body: state } = await callRoute(runRoute.GET, { params: { id: build.id }, as: as(demo, 'reviewer') });
+    const sign = await post(build.id, { type: 'hold.sign', stepId: 'as-33-build-sign-off', meaning: 'Build checked against the procedure' }, state.run.lastSeq, 'reviewer', randomUUID(), demo);
+    expect(sign.status, JSON.stringify(sign.body)).toBe(201);
+    expect(sign.body.progress.complete).toBe(true);
+  });
+});

@@ -4,8 +4,9 @@
  */
 import type { EntityManager } from '@mikro-orm/core';
 import { seedDemoProcedures } from './demo-procedures';
+import { seedDemoRuns } from './demo-runs';
 
 export type DemoContext = { shopId: string; users: Record<string, string> };
 export type DemoSeedStep = (em: EntityManager, ctx: DemoContext) => Promise<void>;
 
-export const demoSeedSteps: DemoSeedStep[] = [seedDemoProcedures];
+export const demoSeedSteps: DemoSeedStep[] = [seedDemoProcedures, seedDemoRuns];

@@ -105,6 +105,15 @@ export async function getRun(em: EntityManager, shopId: string, runId: string): 
   };
 }
 
+/** Recomputes a run's list fields (status, progress, next prompt) from its log; for seeding and repair. */
+export async function refreshRunSummary(em: EntityManager, shopId: string, runId: string): Promise<void> {
+  const run = await loadRun(em, shopId, runId);
+  const [revision, rows] = await Promise.all([pinnedRevision(em, shopId, run.revisionId), logOf(em, run)]);
+  summarise(run, replay(revision.steps, rows.map((r) => r.payload)));
+  run.lastSeq = rows.at(-1)?.seq ?? 0;
+  await em.flush();
+}
+
 /** Events after a seq, for a client catching up. */
 export async function runEventsAfter(em: EntityManager, shopId: string, runId: string, after: number): Promise<{ events: StoredEventDto[]; lastSeq: number }> {
   const run = await loadRun(em, shopId, runId);
