@@ -42,8 +42,24 @@ export function ensureNodeModules(root) {
   const lock = path.join(root, 'package-lock.json');
   const stale = !fs.existsSync(marker) || fs.statSync(marker).mtimeMs < fs.statSync(lock).mtimeMs;
   if (!stale) return;
-  say('Installing npm packages (npm ci)');
-  run('npm', ['ci', '--no-audit', '--no-fund'], { cwd: root });
+  // Only one install at a time: parallel `npm test` runs would otherwise both empty node_modules.
+  const lockDir = path.join(root, '.data', 'npm-ci.lock');
+  fs.mkdirSync(path.dirname(lockDir), { recursive: true });
+  const deadline = Date.now() + 10 * 60_000;
+  for (;;) {
+    try { fs.mkdirSync(lockDir); break; } catch {
+      if (Date.now() > deadline) throw new Error(`Another npm ci holds ${lockDir}; remove it if no install is running.`);
+      Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, 500);
+    }
+  }
+  try {
+    const stillStale = !fs.existsSync(marker) || fs.statSync(marker).mtimeMs < fs.statSync(lock).mtimeMs;
+    if (!stillStale) return;
+    say('Installing npm packages (npm ci)');
+    run('npm', ['ci', '--no-audit', '--no-fund'], { cwd: root });
+  } finally {
+    fs.rmSync(lockDir, { recursive: true, force: true });
+  }
 }
 
 /** Path to a Chromium for browser tests; installs Debian's chromium package when missing. */
