@@ -18,6 +18,7 @@ import type { Member } from '../guards';
 import { AppError, notFound } from '../http';
 import { pinnedRevision, revisionForNewRun } from './run-revision';
 import { userNames } from './shop-members';
+import { noticesAfterEvent } from './review.service';
 
 export const startRunInput = z.object({ revisionId: z.uuid('Choose a released revision') }).strict();
 export const recordEventInput = z.object({
@@ -181,6 +182,8 @@ export async function recordRunEvent(em: EntityManager, member: Member, runId: s
   if (outcome.kind === 'stale') {
     throw new AppError('conflict', 'Someone else recorded on this run first; here is the fresh state.', { lastSeq: outcome.lastSeq, events: await toEventDtos(em, outcome.rows) });
   }
+  // Review-queue notices (hold point reached, run finished, deviation asked); never throws.
+  if (outcome.created) await noticesAfterEvent(em, member.shopId, runId, outcome.row.payload, outcome.snapshot);
   const [dto] = await toEventDtos(em, [outcome.row]);
   return { status: outcome.created ? 201 : 200, body: { event: dto!, lastSeq: outcome.lastSeq, next: nextExpected(outcome.snapshot), progress: runProgress(outcome.snapshot) } };
 }
