@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { MAX_PHOTO_BYTES, MAX_PHOTOS_PER_SCOPE, checkUpload, formatMatches } from './upload-rules';
+import { MAX_PHOTO_BYTES, MAX_PHOTOS_PER_SCOPE, checkUpload, formatMatches, looksLikeHeif } from './upload-rules';
 
 describe('checkUpload', () => {
   it.each([
@@ -39,4 +39,13 @@ describe('formatMatches', () => {
     ['image/gif', 'gif', false],
     ['image/jpeg', undefined, false],
   ])('%s with detected %s → %s', (type, detected, ok) => expect(formatMatches(type, detected)).toBe(ok));
+});
+
+describe('looksLikeHeif', () => {
+  const box = (brand: string) => new Uint8Array([0, 0, 0, 24, ...[...`ftyp${brand}`].map((c) => c.charCodeAt(0)), 0, 0, 0, 0]);
+  it.each([['heic', true], ['mif1', true], ['avif', false], ['isom', false]])('brand %s → %s', (brand, ok) => expect(looksLikeHeif(box(brand))).toBe(ok));
+  it('refuses JPEG bytes and short input', () => {
+    expect(looksLikeHeif(new Uint8Array([0xff, 0xd8, 0xff, 0xe0, 0, 0, 0, 0, 0, 0, 0, 0]))).toBe(false);
+    expect(looksLikeHeif(new Uint8Array([0, 0]))).toBe(false);
+  });
 });

@@ -57,3 +57,12 @@ export function formatMatches(contentType: string, detected: string | undefined)
 
 /** The limits in words, shown before the upload starts. */
 export const uploadLimitsText = () => `Photos only (JPEG, PNG, WebP, HEIC), up to ${MAX_PHOTO_BYTES / (1024 * 1024)} MB each, at most ${MAX_PHOTOS_PER_SCOPE} here.`;
+
+const HEIF_BRANDS = new Set(['heic', 'heix', 'heim', 'heis', 'hevc', 'hevx', 'mif1', 'msf1']);
+
+/** Whether the first bytes are an ISO-BMFF `ftyp` box of a HEIC/HEIF image (sharp here cannot decode HEIC). */
+export function looksLikeHeif(head: Uint8Array): boolean {
+  if (head.length < 12) return false;
+  const ascii = (a: number, b: number) => String.fromCharCode(...head.subarray(a, b));
+  return ascii(4, 8) === 'ftyp' && HEIF_BRANDS.has(ascii(8, 12));
+}

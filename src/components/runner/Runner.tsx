@@ -7,6 +7,7 @@ import { useEffect, useRef, useState } from 'react';
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { nextExpected, runProgress, stepStates } from '../../domain/run';
 import { StatusRegion } from '../ui/StatusRegion';
+import { StepExtras } from '../parts/StepExtras';
 import { CurrentStep } from './CurrentStep';
 import { Legend } from './Legend';
 import { OfflineBanner } from './OfflineBanner';
@@ -112,6 +113,7 @@ function RunnerView({ run, viewer, units }: Props) {
               <p className="text-lg">A reviewer can now check the run. The <a className="underline" href={`/runs/${run.run.id}/history`}>history</a> shows every event.</p>
             </section>
           )}
+          {step && <StepExtras key={`extras-${step.id}`} runId={run.run.id} jobId={run.run.jobId} step={step} role={viewer.role} />}
         </div>
         <aside className="space-y-4" aria-label="Run overview">
           {following && (

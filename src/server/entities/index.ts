@@ -10,9 +10,15 @@ import { Signature } from './signature.entity';
 import { ShareLink } from './share-link.entity';
 import { ShareView } from './share-view.entity';
 import { OutgoingMessage } from './outgoing-message.entity';
+import { Attachment } from './attachment.entity';
+import { Tag } from './tag.entity';
+import { TagHistory } from './tag-history.entity';
+import { Finding } from './finding.entity';
+import { PartsListOverride } from './parts-list-override.entity';
 
-export const entities = [ShopSettings, Procedure, ProcedureRevision, Job, JobAssignment, Run, RunEvent, Signature, ShareLink, ShareView, OutgoingMessage];
+export const entities = [ShopSettings, Procedure, ProcedureRevision, Job, JobAssignment, Run, RunEvent, Signature, ShareLink, ShareView, OutgoingMessage, Attachment, Tag, TagHistory, Finding, PartsListOverride];
 export { ShopSettings };
 export { Procedure, ProcedureRevision };
 export { Job, JobAssignment, Run, RunEvent };
 export { Signature, ShareLink, ShareView, OutgoingMessage };
+export { Attachment, Tag, TagHistory, Finding, PartsListOverride };

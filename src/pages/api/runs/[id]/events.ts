@@ -2,6 +2,7 @@ import { em } from '../../../../server/em';
 import { requireMember } from '../../../../server/guards';
 import { handle, json, readJson } from '../../../../server/http';
 import { eventsQuery, recordEventInput, recordRunEvent, runEventsAfter } from '../../../../server/services/runs.service';
+import { syncTags } from '../../../../server/services/tags.service';
 
 /** Events after `?after=<seq>` (default: all). */
 export const GET = handle(async (ctx) => {
@@ -19,5 +20,7 @@ export const POST = handle(async (ctx) => {
   const input = await readJson(ctx.request, recordEventInput);
   const device = input.device ?? ctx.request.headers.get('x-device')?.trim().slice(0, 120) ?? undefined;
   const { status, body } = await recordRunEvent(await em(), m, ctx.params.id ?? '', { ...input, device: device || undefined });
+  // Tags project from tag-part completions; the tag board re-syncs on load if this ever fails.
+  if (status === 201 && body.event.type === 'step.complete') await syncTags(await em(), m.shopId, ctx.params.id ?? '').catch((e) => console.error('[tags] sync after event failed', e));
   return json(body, status);
 });
