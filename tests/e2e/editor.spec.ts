@@ -33,6 +33,9 @@ const KIND_TITLES: Array<[string, string]> = [
   ['Replace parts', 'Parts to replace'],
 ];
 
+/** Waits for a condition (the server shares two busy cores with other test runs). */
+const poll = <T>(fn: () => Promise<T> | T) => expect.poll(fn, { timeout: 20_000, interval: 100 });
+
 const titles = (page: Page) => page.getByTestId('step-title').allTextContents();
 const liveRegion = (page: Page) => page.locator('[id^="DndLiveRegion"]');
 
@@ -55,7 +58,7 @@ async function waitSaved(page: Page, ctx: BrowserContext, id: string, check: (r:
 
 async function selectStep(page: Page, title: string) {
   await page.getByTestId('step-select').filter({ hasText: title }).click();
-  await expect.poll(() => page.getByTestId('step-form').getAttribute('aria-label')).toBe(`Step: ${title}`);
+  await poll(() => page.getByTestId('step-form').getAttribute('aria-label')).toBe(`Step: ${title}`);
 }
 
 async function svgOrder(page: Page, ids: string[]) {
@@ -89,7 +92,7 @@ describe('procedure editor', () => {
       await page.getByRole('button', { name: '+ Add step' }).click();
       await page.getByRole('menuitem', { name: kind, exact: true }).click();
     }
-    await expect.poll(() => titles(page)).toEqual(KIND_TITLES.map(([, t]) => t));
+    await poll(() => titles(page)).toEqual(KIND_TITLES.map(([, t]) => t));
 
     // Reorder by mouse: drag "New action" onto "New torque".
     const handle = page.getByRole('button', { name: /^Move step 1: New action$/ });
@@ -100,42 +103,43 @@ describe('procedure editor', () => {
     await page.mouse.down();
     await page.mouse.move(from.x + from.width / 2, from.y + from.height / 2 + 12, { steps: 4 });
     await page.mouse.move(from.x + from.width / 2, to.y + to.height / 2 + 4, { steps: 12 });
-    await expect.poll(() => liveRegion(page).textContent()).toContain('is over position 3 of 9');
+    await poll(() => liveRegion(page).textContent()).toContain('is over position 3 of 9');
     await page.mouse.up();
-    await expect.poll(() => titles(page)).toEqual(['New fastener sequence', 'New torque', 'New action', 'New measurement', 'Tag removed part', 'New inspection', 'New caution', 'New hold point', 'Parts to replace']);
+    await poll(() => titles(page)).toEqual(['New fastener sequence', 'New torque', 'New action', 'New measurement', 'Tag removed part', 'New inspection', 'New caution', 'New hold point', 'Parts to replace']);
 
     // Reorder by keyboard: Space picks up, ArrowDown moves, Space drops.
     const measureHandle = page.getByRole('button', { name: /^Move step 4: New measurement$/ });
     await measureHandle.focus();
     await page.keyboard.press('Space');
-    await expect.poll(() => liveRegion(page).textContent()).toContain('Picked up step "New measurement", position 4 of 9');
+    await poll(() => measureHandle.getAttribute('aria-pressed')).toBe('true');
+    await poll(() => liveRegion(page).textContent()).toContain('Picked up step "New measurement", position 4 of 9');
     await page.keyboard.press('ArrowDown');
-    await expect.poll(() => liveRegion(page).textContent()).toContain('is over position 5 of 9');
+    await poll(() => liveRegion(page).textContent()).toContain('is over position 5 of 9');
     await page.keyboard.press('Space');
-    await expect.poll(() => liveRegion(page).textContent()).toContain('was dropped at position 5 of 9');
+    await poll(() => liveRegion(page).textContent()).toContain('was dropped at position 5 of 9');
     const afterKeyboard = ['New fastener sequence', 'New torque', 'New action', 'Tag removed part', 'New measurement', 'New inspection', 'New caution', 'New hold point', 'Parts to replace'];
-    await expect.poll(() => titles(page)).toEqual(afterKeyboard);
+    await poll(() => titles(page)).toEqual(afterKeyboard);
 
     // A keyboard move cancelled with Escape changes nothing.
     await page.getByRole('button', { name: /^Move step 7: New caution$/ }).focus();
     await page.keyboard.press('Space');
-    await expect.poll(() => liveRegion(page).textContent()).toContain('Picked up step "New caution"');
+    await poll(() => liveRegion(page).textContent()).toContain('Picked up step "New caution"');
     await page.keyboard.press('ArrowUp');
-    await expect.poll(() => liveRegion(page).textContent()).toContain('is over position 6 of 9');
+    await poll(() => liveRegion(page).textContent()).toContain('is over position 6 of 9');
     await page.keyboard.press('Escape');
-    await expect.poll(() => liveRegion(page).textContent()).toContain('was cancelled');
+    await poll(() => liveRegion(page).textContent()).toContain('was cancelled');
     expect(await titles(page)).toEqual(afterKeyboard);
 
     // A field that fails the schema shows its message beside it, and saving waits for it.
     await selectStep(page, 'New measurement');
     const title = page.getByLabel('Title', { exact: true });
     await title.fill('');
-    await expect.poll(() => page.getByTestId('error-title').textContent()).toContain('Required');
-    await expect.poll(() => page.getByTestId('save-state').getAttribute('data-state')).toBe('blocked');
+    await poll(() => page.getByTestId('error-title').textContent()).toContain('Required');
+    await poll(() => page.getByTestId('save-state').getAttribute('data-state')).toBe('blocked');
     expect(await page.getByTestId('save-text').textContent()).toMatch(/^Not saved — /);
     await title.fill('Main bearing bore');
     await page.getByLabel('Instructions').fill('Measure at **both** planes.\n\n*Example data — not a maker\'s specification.*');
-    await expect.poll(() => page.getByTestId('body-preview').innerHTML()).toContain('<strong>both</strong>');
+    await poll(() => page.getByTestId('body-preview').innerHTML()).toContain('<strong>both</strong>');
 
     // The fastener map: loosen, a 2 × 5 layout from the preset, ordered by the tools.
     await selectStep(page, 'New fastener sequence');
@@ -143,23 +147,23 @@ describe('procedure editor', () => {
     await page.getByLabel('Layout', { exact: true }).selectOption('rows');
     await page.getByLabel('N (per row)').fill('5');
     await page.getByRole('button', { name: 'Place layout' }).click();
-    await expect.poll(() => page.getByTestId('fastener-svg').locator('g[role="button"]').count()).toBe(10);
+    await poll(() => page.getByTestId('fastener-svg').locator('g[role="button"]').count()).toBe(10);
     const fasteners = rowsLayout(5, 2);
     const ids = fasteners.map((f) => f.id);
     const expectNumbers = (order: string[]) => ids.map((id) => String(order.indexOf(id) + 1));
 
     await page.getByRole('button', { name: 'Centre-out', exact: true }).click();
-    await expect.poll(() => svgOrder(page, ids)).toEqual(expectNumbers(centreOutOrder(fasteners)));
+    await poll(() => svgOrder(page, ids)).toEqual(expectNumbers(centreOutOrder(fasteners)));
     await page.getByRole('button', { name: 'Reverse (loosening)' }).click();
     const loosening = looseningOrder(fasteners);
-    await expect.poll(() => svgOrder(page, ids)).toEqual(expectNumbers(loosening));
+    await poll(() => svgOrder(page, ids)).toEqual(expectNumbers(loosening));
     expect(await page.getByTestId('order-method').textContent()).toBe('Reverse (loosening)');
 
     // Passes: loosen a quarter turn, then remove; the plan lists them in order.
     await page.getByRole('button', { name: '+ Loosen by angle' }).click();
     await page.getByRole('button', { name: '+ Remove', exact: true }).click();
     await page.getByRole('button', { name: 'Remove pass 1' }).click();
-    await expect.poll(() => page.getByTestId('pass-plan').textContent()).toContain('Pass 1 of 2: loosen 90° (¼ turn)');
+    await poll(() => page.getByTestId('pass-plan').textContent()).toContain('Pass 1 of 2: loosen 90° (¼ turn)');
     expect(await page.getByTestId('pass-plan').textContent()).toContain('Pass 2 of 2: remove');
 
     await waitSaved(page, ctx, draftId, (r) => {
@@ -193,7 +197,7 @@ describe('procedure editor', () => {
     const draft2 = new URL(page.url()).pathname.split('/')[2]!;
     await selectStep(page, 'New torque');
     await page.getByLabel('Torque target').fill('45');
-    await expect.poll(() => page.getByTestId('converted-target').textContent()).toBe('≈ 33.2 ft·lbf');
+    await poll(() => page.getByTestId('converted-target').textContent()).toBe('≈ 33.2 ft·lbf');
     await waitSaved(page, ctx, draft2, (r) => r.content.steps.some((s) => s.kind === 'torque' && s.target.value === 45));
 
     // Compare revision 1 with the new draft: the changed field, before → after.
@@ -220,7 +224,7 @@ describe('procedure editor', () => {
     expect(firstSeq?.kind === 'fastener-sequence' && firstSeq.map.order).toEqual(centreOutOrder(fasteners));
     await selectStep(page, firstSeq!.title);
     expect(await page.getByLabel('Direction').inputValue()).toBe('tighten');
-    await expect.poll(() => svgOrder(page, ids)).toEqual(expectNumbers(centreOutOrder(fasteners)));
+    await poll(() => svgOrder(page, ids)).toEqual(expectNumbers(centreOutOrder(fasteners)));
 
     // A technician gets the refusal page, and the API refuses the save.
     const techCtx = await newContext(browser);
@@ -251,34 +255,34 @@ describe('procedure editor', () => {
     // N opens the kinds; Enter takes the focused one, arrows move through them.
     await page.locator('h1').click();
     await page.keyboard.press('n');
-    await expect.poll(() => page.getByRole('menu', { name: 'Kind of step' }).isVisible()).toBe(true);
+    await poll(() => page.getByRole('menu', { name: 'Kind of step' }).isVisible()).toBe(true);
     await page.keyboard.press('Enter');
     await page.keyboard.press('n');
     await page.getByRole('menuitem', { name: 'Action', exact: true }).waitFor();
     await page.keyboard.press('ArrowDown');
     await page.keyboard.press('ArrowDown');
     await page.keyboard.press('Enter');
-    await expect.poll(() => titles(page)).toEqual(['New action', 'New torque']);
+    await poll(() => titles(page)).toEqual(['New action', 'New torque']);
 
     // Ctrl+D duplicates the selected step, Alt+↓ moves it, Delete asks first.
     await page.getByTestId('step-select').filter({ hasText: 'New action' }).click();
     await page.keyboard.press('Control+d');
-    await expect.poll(() => titles(page)).toEqual(['New action', 'New action', 'New torque']);
+    await poll(() => titles(page)).toEqual(['New action', 'New action', 'New torque']);
     await page.keyboard.press('Alt+ArrowDown');
-    await expect.poll(() => titles(page)).toEqual(['New action', 'New torque', 'New action']);
+    await poll(() => titles(page)).toEqual(['New action', 'New torque', 'New action']);
     expect(await page.getByTestId('step-select').nth(2).getAttribute('aria-current')).toBe('true');
     await page.keyboard.press('Delete');
     await page.getByRole('button', { name: 'Delete step' }).click();
-    await expect.poll(() => titles(page)).toEqual(['New action', 'New torque']);
+    await poll(() => titles(page)).toEqual(['New action', 'New torque']);
     await page.keyboard.press('Control+z');
-    await expect.poll(() => titles(page)).toEqual(['New action', 'New torque', 'New action']);
+    await poll(() => titles(page)).toEqual(['New action', 'New torque', 'New action']);
     await page.getByRole('button', { name: '↶ Undo' }).click();
-    await expect.poll(() => titles(page)).toEqual(['New action', 'New action', 'New torque']);
+    await poll(() => titles(page)).toEqual(['New action', 'New action', 'New torque']);
 
     // A section typed in the form becomes a heading in the list.
     await page.getByTestId('step-select').first().click();
     await page.getByLabel('Section').fill('Cylinder head');
-    await expect.poll(() => page.getByTestId('section-heading').allTextContents()).toEqual(['§ Cylinder head', '§ No section']);
+    await poll(() => page.getByTestId('section-heading').allTextContents()).toEqual(['§ Cylinder head', '§ No section']);
     await waitSaved(page, ctx, draftId, (r) => r.content.steps.length === 3 && r.content.steps[0]?.section === 'Cylinder head');
 
     // Someone else saves the same draft; this page's next save is refused and offers a reload.
@@ -292,11 +296,11 @@ describe('procedure editor', () => {
 
     await selectStep(page, 'New torque');
     await page.getByLabel('Title', { exact: true }).fill('Crank pulley bolt');
-    await expect.poll(() => page.getByTestId('save-state').getAttribute('data-state')).toBe('conflict');
+    await poll(() => page.getByTestId('save-state').getAttribute('data-state')).toBe('conflict');
     expect(await page.getByTestId('save-text').textContent()).toMatch(/^Not saved — This draft was changed elsewhere/);
     expect((await getRevision(ctx, draftId)).content.steps.some((s) => s.title === 'Flywheel bolts')).toBe(true);
     await page.getByRole('button', { name: 'Reload the latest draft' }).click();
-    await expect.poll(() => titles(page)).toEqual(['New action', 'New action', 'Flywheel bolts']);
+    await poll(() => titles(page)).toEqual(['New action', 'New action', 'Flywheel bolts']);
     expect(await page.getByTestId('save-text').textContent()).toBe('Saved');
     await ctx.close();
   });

@@ -7,6 +7,7 @@ import {
   type Announcements, type DragEndEvent, type ScreenReaderInstructions, type UniqueIdentifier,
 } from '@dnd-kit/core';
 import { SortableContext, sortableKeyboardCoordinates, useSortable, verticalListSortingStrategy } from '@dnd-kit/sortable';
+import { useRef } from 'react';
 import type { Step } from '../../domain/procedure/schema';
 import { KIND_LABELS, KIND_MARKS } from './labels';
 
@@ -33,6 +34,7 @@ export function StepList({ steps, selectedId, readOnly, problems, onSelect, onMo
     useSensor(KeyboardSensor, { coordinateGetter: sortableKeyboardCoordinates }),
   );
   const n = steps.length;
+  const movedAway = useRef(false);
   const find = (id: UniqueIdentifier) => {
     const i = steps.findIndex((s) => s.id === id);
     return { i, step: steps[i] };
@@ -40,8 +42,14 @@ export function StepList({ steps, selectedId, readOnly, problems, onSelect, onMo
   const describe = (id: UniqueIdentifier) => `step "${find(id).step?.title ?? id}"`;
 
   const announcements: Announcements = {
-    onDragStart: ({ active }) => `Picked up ${describe(active.id)}, position ${find(active.id).i + 1} of ${n}.`,
+    onDragStart: ({ active }) => {
+      movedAway.current = false;
+      return `Picked up ${describe(active.id)}, position ${find(active.id).i + 1} of ${n}.`;
+    },
     onDragOver: ({ active, over }) => {
+      // Right after pick-up the step is over itself: keep the pick-up message instead.
+      if (over?.id === active.id && !movedAway.current) return undefined;
+      movedAway.current = true;
       if (!over) return `${describe(active.id)} is not over a place in the list.`;
       const target = find(over.id);
       return `${describe(active.id)} is over position ${target.i + 1} of ${n}, ${sectionWord(target.step?.section ?? '')}.`;
