@@ -40,6 +40,22 @@ function fit(font: PDFFont, text: string, size: number, width: number): string {
   return `${t}…`;
 }
 
+/** Breaks text into at most `max` lines that fit, preferring breaks after "-" or "/"; the last line is cut if needed. */
+export function wrap(font: PDFFont, text: string, size: number, width: number, max: number): string[] {
+  const lines: string[] = [];
+  let rest = text;
+  while (rest && lines.length < max - 1 && font.widthOfTextAtSize(rest, size) > width) {
+    let n = rest.length;
+    while (n > 1 && font.widthOfTextAtSize(rest.slice(0, n), size) > width) n--;
+    const soft = Math.max(rest.lastIndexOf('-', n - 1), rest.lastIndexOf('/', n - 1));
+    const cut = soft > n / 2 ? soft + 1 : n;
+    lines.push(rest.slice(0, cut));
+    rest = rest.slice(cut);
+  }
+  if (rest) lines.push(fit(font, rest, size, width));
+  return lines;
+}
+
 const DISPOSITION_WORDS: Record<TagDto['disposition'], string> = { reuse: 'Reuse', replace: 'Replace', 'machine-shop': 'Machine shop', scrap: 'Scrap' };
 
 /** The label sheet PDF for the given tags. */
@@ -52,13 +68,13 @@ export async function renderLabels(tags: readonly TagDto[], title: string): Prom
   const pages = [];
   for (let i = 0; i < Math.max(1, Math.ceil(tags.length / PER_SHEET)); i++) pages.push(doc.addPage([SHEET.width, SHEET.height]));
   const pad = 2.5 * MM;
-  const qrSide = SHEET.labelH - 2 * pad;
+  const qrSide = 26 * MM;
   for (const [i, tag] of tags.entries()) {
     const { page, x, y } = labelSlot(i);
     const p = pages[page]!;
     const png = await QRCode.toBuffer(tagUrl(tag.id), { errorCorrectionLevel: 'M', margin: 0, scale: 8, color: { dark: '#000000', light: '#ffffff' } });
     const img = await doc.embedPng(png);
-    p.drawImage(img, { x: x + pad, y: y + pad, width: qrSide, height: qrSide });
+    p.drawImage(img, { x: x + pad, y: y + (SHEET.labelH - qrSide) / 2, width: qrSide, height: qrSide });
     const tx = x + pad + qrSide + 2 * MM;
     const tw = SHEET.labelW - (tx - x) - pad;
     let ty = y + SHEET.labelH - pad - 9;
@@ -66,12 +82,14 @@ export async function renderLabels(tags: readonly TagDto[], title: string): Prom
       p.drawText(fit(font, text, size, tw), { x: tx, y: ty, size, font, color: rgb(0, 0, 0) });
       ty -= size + gap;
     };
-    line(tag.code, 8.5, 3);
+    for (const l of wrap(font, tag.code, 8.5, tw, 2)) line(l, 8.5, 1);
+    ty -= 2;
     line(tag.partName, 9);
     line(`Position ${tag.position}`, 9);
     line(tag.bin ? `Bin ${tag.bin}` : 'Bin —', 9);
     line(DISPOSITION_WORDS[tag.disposition], 8);
-    p.drawText(fit(font, tagUrl(tag.id), 4.5, tw), { x: tx, y: y + pad, size: 4.5, font, color: rgb(0.2, 0.2, 0.2) });
+    const url = wrap(font, tagUrl(tag.id), 4.5, tw, 2);
+    url.forEach((l, k) => p.drawText(l, { x: tx, y: y + pad + (url.length - 1 - k) * 5.5, size: 4.5, font, color: rgb(0.2, 0.2, 0.2) }));
   }
   if (tags.length === 0) pages[0]!.drawText('No tags on this job yet.', { x: 20 * MM, y: SHEET.height - 30 * MM, size: 14, font });
   return doc.save();
