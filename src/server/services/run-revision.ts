@@ -13,7 +13,8 @@ import { getReleasedRevisionContent } from './procedures.service';
 export type PinnedRevision = { id: string; procedureId: string; procedureName: string; procedureKey: string; number: number; status: 'released' | 'retired'; steps: Step[] };
 
 async function load(em: EntityManager, shopId: string, revisionId: string) {
-  const rev = await em.findOne(ProcedureRevision, { id: revisionId, shopId }, { populate: ['procedure'] });
+  // The content column (large for long procedures) comes from the released-content cache instead.
+  const rev = await em.findOne(ProcedureRevision, { id: revisionId, shopId }, { populate: ['procedure'], exclude: ['content'] });
   if (!rev) throw notFound('That procedure revision');
   return rev;
 }

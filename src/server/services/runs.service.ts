@@ -9,7 +9,7 @@ import type { EntityManager } from '@mikro-orm/postgresql';
 import * as z from 'zod';
 import { acceptsNewRuns, statusOnRunComplete, statusOnRunReopen, statusOnRunStart } from '../../domain/job-status';
 import type { Step } from '../../domain/procedure/schema';
-import { applyEvent, nextExpected, pendingDeviation, replay, runProgress, startRun, stepStates, type RunEvent, type RunSnapshot } from '../../domain/run';
+import { applyEvent, nextExpected, pendingDeviation, replay, runProgress, startRun, stepStates, storeRun, type RunEvent, type RunSnapshot } from '../../domain/run';
 import { roleCan } from '../../lib/access';
 import { Job, Run, RunEvent as RunEventRow } from '../entities';
 import type { RunEntity, RunStatus } from '../entities/run.entity';
@@ -18,6 +18,7 @@ import type { Member } from '../guards';
 import { AppError, notFound } from '../http';
 import { pinnedRevision, revisionForNewRun } from './run-revision';
 import { userNames } from './shop-members';
+import { currentRunState, rememberRunState } from './run-state';
 import { noticesAfterEvent } from './review.service';
 
 export const startRunInput = z.object({ revisionId: z.uuid('Choose a released revision') }).strict();
@@ -99,7 +100,8 @@ export async function startJobRun(em: EntityManager, member: Member, jobId: stri
 export async function getRun(em: EntityManager, shopId: string, runId: string): Promise<RunDto> {
   const run = await loadRun(em, shopId, runId);
   const [revision, rows] = await Promise.all([pinnedRevision(em, shopId, run.revisionId), logOf(em, run)]);
-  const snapshot = replay(revision.steps, rows.map((r) => r.payload));
+  // The log was read after the run row, so it can only be as new or newer than lastSeq.
+  const snapshot = rows.length === run.lastSeq ? await currentRunState(em, run, revision.steps) : replay(revision.steps, rows.map((r) => r.payload));
   return {
     run: await runInfo(em, run), steps: revision.steps, events: await toEventDtos(em, rows),
     next: nextExpected(snapshot), progress: runProgress(snapshot), stepStates: stepStates(snapshot), pendingDeviation: pendingDeviation(snapshot),
@@ -147,19 +149,22 @@ export async function recordRunEvent(em: EntityManager, member: Member, runId: s
 
   const outcome = await em.transactional(async (tem): Promise<Outcome> => {
     const run = await loadRun(tem, member.shopId, runId, true);
-    const [revision, rows] = await Promise.all([pinnedRevision(tem, member.shopId, run.revisionId), logOf(tem, run)]);
-    const earlier = rows.find((r) => r.idempotencyKey === input.idempotencyKey);
+    const [revision, earlier] = await Promise.all([
+      pinnedRevision(tem, member.shopId, run.revisionId),
+      tem.findOne(RunEventRow, { run: run.id, idempotencyKey: input.idempotencyKey }),
+    ]);
     if (earlier) {
       if (earlier.type !== type || earlier.payload.stepId !== input.event.stepId) throw new AppError('conflict', 'This idempotency key was already used for a different event; send a new key for a new event.');
-      return { kind: 'stored', row: earlier, snapshot: replay(revision.steps, rows.map((r) => r.payload)), lastSeq: run.lastSeq, created: false };
+      return { kind: 'stored', row: earlier, snapshot: await currentRunState(tem, run, revision.steps), lastSeq: run.lastSeq, created: false };
     }
-    if (input.expectedSeq !== run.lastSeq) return { kind: 'stale', lastSeq: run.lastSeq, rows: rows.filter((r) => r.seq > input.expectedSeq) };
+    if (input.expectedSeq !== run.lastSeq) return { kind: 'stale', lastSeq: run.lastSeq, rows: await logOf(tem, run, input.expectedSeq) };
     const job = await tem.findOneOrFail(Job, { id: run.job.id, shopId: member.shopId });
     if (job.status === 'closed') throw new AppError('conflict', `Job ${job.code} is closed; nothing more can be recorded on its runs.`);
 
-    const result = applyEvent(revision.steps, rows.map((r) => r.payload), event);
+    // Under the row lock lastSeq is current, so the cached state (if any) is exactly the log's.
+    const before = await currentRunState(tem, run, revision.steps);
+    const result = applyEvent(revision.steps, storeRun(before), event);
     if (!result.ok) {
-      const before = replay(revision.steps, rows.map((r) => r.payload));
       if (result.code === 'invalid-input') throw new AppError('bad-request', result.message, { next: nextExpected(before) });
       throw new AppError(result.code, result.message, { next: nextExpected(before) });
     }
@@ -176,6 +181,7 @@ export async function recordRunEvent(em: EntityManager, member: Member, runId: s
     }
     if (result.event.type === 'run.reopen') job.status = statusOnRunReopen(job.status);
     await tem.flush();
+    rememberRunState(run, run.lastSeq, result.snapshot);
     return { kind: 'stored', row, snapshot: result.snapshot, lastSeq: run.lastSeq, created: true };
   });
 
