@@ -304,4 +304,81 @@ describe('procedure editor', () => {
     expect(await page.getByTestId('save-text').textContent()).toBe('Saved');
     await ctx.close();
   });
+
+  it('fastener map by hand: add by click, number by hand (and a refused partial order), nudge, drag, label, pass targets converted', async () => {
+    const ctx = await newContext(browser, { width: 1400, height: 1100 });
+    const page = await ctx.newPage();
+    await signInAs(page, 'lead');
+    const draftId = await page.evaluate(async () => {
+      const r = await fetch('/api/procedures', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ name: `Map test ${Date.now()}`, kind: 'assembly', engineFamily: '', description: '' }) });
+      return ((await r.json()) as { draft: { id: string } }).draft.id;
+    });
+    await page.goto(`/revisions/${draftId}/edit`);
+    await hydrated(page, '[data-testid="procedure-editor"][data-hydrated="true"]');
+    await page.getByRole('button', { name: '+ Add step' }).click();
+    await page.getByRole('menuitem', { name: 'Fastener sequence', exact: true }).click();
+
+    const svg = page.getByTestId('fastener-svg');
+    // Screen point of a layout point (the viewBox runs from -60 to 1060 on both axes), in view.
+    const at = async (x: number, y: number) => {
+      await svg.scrollIntoViewIfNeeded();
+      const box = (await svg.boundingBox())!;
+      return { x: box.x + ((x + 60) / 1120) * box.width, y: box.y + ((y + 60) / 1120) * box.height };
+    };
+    const xy = async () => (await page.getByTestId('fastener-details').locator('span').first().textContent()) ?? '';
+    const ids = ['f1', 'f2', 'f3'];
+
+    await page.getByRole('button', { name: '+ Add fasteners' }).click();
+    for (const [x, y] of [[200, 500], [800, 500]] as const) {
+      const p = await at(x, y);
+      await page.mouse.click(p.x, p.y);
+    }
+    await poll(() => svg.locator('g[role="button"]').count()).toBe(3);
+    await poll(() => svgOrder(page, ids)).toEqual(['1', '2', '3']);
+
+    // By hand: tap 3, 1, 2; the order is taken when every fastener has its number.
+    await page.getByRole('button', { name: 'Number by hand' }).click();
+    for (const id of ['f3', 'f1', 'f2']) await page.getByTestId(`fastener-${id}`).click();
+    await poll(() => svgOrder(page, ids)).toEqual(['2', '3', '1']);
+    expect(await page.getByTestId('order-method').textContent()).toBe('By hand');
+
+    // A partial hand order is refused with the missing fasteners named; cancel keeps the old one.
+    await page.getByRole('button', { name: 'Number by hand' }).click();
+    await page.getByTestId('fastener-f1').click();
+    await page.getByRole('button', { name: 'Finish numbering' }).click();
+    await poll(() => page.getByTestId('map-error').textContent()).toContain('missing "2", "3"');
+    await page.getByRole('button', { name: 'Cancel numbering' }).click();
+    await poll(() => svgOrder(page, ids)).toEqual(['2', '3', '1']);
+
+    // Keyboard nudge, mouse drag and a new label.
+    await page.getByRole('button', { name: '✥ Select and move' }).click();
+    await page.getByTestId('fastener-f2').focus();
+    const before = /x (\d+), y (\d+)/.exec(await xy())!;
+    await page.keyboard.press('ArrowRight');
+    await poll(xy).toBe(`x ${Number(before[1]) + 10}, y ${before[2]}`);
+    const start = await at(800, 500);
+    const end = await at(800, 200);
+    await page.mouse.move(start.x, start.y);
+    await page.mouse.down();
+    await page.mouse.move(end.x, end.y, { steps: 10 });
+    await page.mouse.up();
+    await poll(async () => Number(/y (\d+)/.exec(await xy())?.[1] ?? 0)).toBeLessThan(230);
+    await page.getByLabel('Label of the selected fastener').fill('A');
+    await poll(() => page.getByTestId('fastener-f3').getAttribute('data-label')).toBe('A');
+
+    // Pass targets in the chosen unit and the other common one.
+    await page.getByRole('button', { name: '+ Torque', exact: true }).click();
+    await poll(() => page.getByTestId('pass-summary-2').textContent()).toBe('10 N·m (≈ 7.4 ft·lbf)');
+    await page.getByLabel('Final torque (percentage passes are stages of it)').check();
+    await poll(() => page.getByTestId('converted-finalTorque').textContent()).toBe('≈ 36.9 ft·lbf');
+    await page.getByRole('button', { name: '+ % of final torque' }).click();
+    await poll(() => page.getByTestId('pass-summary-3').textContent()).toBe('50 % → 25 N·m (≈ 18.4 ft·lbf)');
+    await poll(() => page.getByTestId('pass-plan').textContent()).toContain('Pass 3 of 3: 50 % → 25 N·m — A → 1 → 2');
+
+    await waitSaved(page, ctx, draftId, (r) => {
+      const s0 = r.content.steps[0];
+      return s0?.kind === 'fastener-sequence' && s0.map.orderMethod === 'manual' && JSON.stringify(s0.map.order) === '["f3","f1","f2"]' && s0.passes.length === 3 && s0.finalTorque?.value === 50;
+    });
+    await ctx.close();
+  });
 });
