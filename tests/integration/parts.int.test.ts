@@ -46,7 +46,7 @@ describe('findings', () => {
     ['a zero quantity', { what: 'Crack', severity: 'minor', partsToReplace: [{ part: 'Liner', quantity: 0 }] }, 'partsToReplace.0.quantity'],
     ['a step without its run', { what: 'Crack', severity: 'minor', stepId: 's-caps' }, 'runId'],
     ['a step not in the run', { what: 'Crack', severity: 'minor', runId: '00000000-0000-4000-8000-000000000000' }, 'runId'],
-  ])('refuse %s (400, field %s) and store nothing', async (_n, body, field) => {
+  ])('refuses %s (400) and stores nothing', async (_n, body, field) => {
     const before = await orm.em.fork().count(Finding, {});
     const r = await finding(body);
     expect(r.status).toBe(400);
@@ -111,7 +111,7 @@ describe('the parts list', () => {
     expect(lines[0]).toBe('Part,Quantity,Computed,Reasons');
     expect(lines[1]).toBe('Cover bolt M8,3,3,"Torque-to-yield: 3 fasteners, never reused — Remove the cover bolts"');
     expect(lines[2]).toBe('Cover gasket,2,1 (set by hand to 2),Replace step — Parts always renewed');
-    expect(lines[4]).toBe('"Rear oil seal, lip type",1,1,"Finding: Seal lip torn, ""badly"" — Tag the main caps"');
+    expect(lines[4]).toBe('"Rear oil seal, lip type",1,1,"Finding: Seal lip torn, ""badly"""');
     expect(lines.at(-1)).toBe('');
     expect((await callRoute(csvRoute.GET, { params: { id: job.jobId }, as: as(b) })).status).toBe(404);
   });

@@ -41,7 +41,7 @@ async function presign(body: Record<string, unknown>, shop = a) {
   return callRoute(presignRoute.POST, { method: 'POST', body: { filename: 'cap.jpg', contentType: 'image/jpeg', size: jpeg.length, scope: scope(), ...body }, as: as(shop) });
 }
 async function put(url: string, bytes: Buffer, contentType: string) {
-  const r = await fetch(url, { method: 'PUT', body: bytes, headers: { 'content-type': contentType } });
+  const r = await fetch(url, { method: 'PUT', body: new Uint8Array(bytes), headers: { 'content-type': contentType } });
   expect(r.status).toBe(200);
 }
 const complete = (body: Record<string, unknown>, shop = a) => callRoute(completeRoute.POST, { method: 'POST', body: { filename: 'cap.jpg', contentType: 'image/jpeg', size: jpeg.length, scope: scope(), ...body }, as: as(shop) });
