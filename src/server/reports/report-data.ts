@@ -32,7 +32,7 @@ export type ReportInput = {
   generatedAt: string;
 };
 
-export type ReadingRow = { step: string; position: string; readings: string; result: string; spec: string; inSpec: boolean | null };
+export type ReadingRow = { stepId: string; step: string; position: string; readings: string; result: string; spec: string; inSpec: boolean | null };
 export type PassRow = { step: string; pass: number; target: string; fastener: string; by: string; at: string };
 export type ReportData = {
   kind: ReportKind;
@@ -42,12 +42,12 @@ export type ReportData = {
   job: ReportInput['job'];
   procedure: ReportInput['procedure'];
   run: ReportInput['run'] & { done: number; total: number };
-  steps: Array<{ n: number; title: string; kind: string; state: string; by: string; at: string; note: string }>;
+  steps: Array<{ stepId: string; n: number; title: string; kind: string; state: string; by: string; at: string; note: string }>;
   readings: ReadingRow[];
   passes: PassRow[];
   torques: Array<{ step: string; target: string; applied: string; by: string; at: string }>;
   shims: Array<{ step: string; position: string; measured: string; installed: string; chosen: string }>;
-  deviations: Array<{ step: string; kind: string; reason: string; requestedBy: string; decision: string }>;
+  deviations: Array<{ stepId: string; step: string; kind: string; reason: string; requestedBy: string; decision: string }>;
   tags: ReportTag[];
   findings: ReportFinding[];
   parts: Array<{ part: string; quantity: number; why: string }>;
@@ -81,7 +81,7 @@ export function buildReportData(input: ReportInput): ReportData {
     const last = evs.at(-1);
     const complete = [...evs].reverse().find((e) => e.type === 'step.complete' || e.type === 'hold.sign' || e.type === 'measure.submit' || e.type === 'deviation.approve');
     const note = complete?.payload.type === 'step.complete' ? complete.payload.note ?? '' : complete?.payload.type === 'hold.sign' ? complete.payload.meaning : '';
-    return { n: i + 1, title: s.title, kind: s.kind, state: states[i]?.state ?? 'locked', by: (complete ?? last)?.actorName ?? '', at: (complete ?? last) ? when((complete ?? last)!.recordedAt) : '', note };
+    return { stepId: s.id, n: i + 1, title: s.title, kind: s.kind, state: states[i]?.state ?? 'locked', by: (complete ?? last)?.actorName ?? '', at: (complete ?? last) ? when((complete ?? last)!.recordedAt) : '', note };
   });
 
   const readings: ReadingRow[] = [];
@@ -95,7 +95,7 @@ export function buildReportData(input: ReportInput): ReportData {
       const slots = detail.slots.filter((sl) => sl.position === position);
       const values = slots.map((sl) => (detail.readings[sl.key] === undefined ? `${sl.label}: not read` : `${sl.label}: ${detail.readings[sl.key]} ${s.unit}`));
       const r = resultByPos.get(position);
-      readings.push({ step: titleOf.get(s.id)!, position, readings: values.join('; '), result: r?.detail ?? 'not read', spec: specText(s), inSpec: r?.inSpec ?? null });
+      readings.push({ stepId: s.id, step: titleOf.get(s.id)!, position, readings: values.join('; '), result: r?.detail ?? 'not read', spec: specText(s), inSpec: r?.inSpec ?? null });
       if (s.method.kind === 'valve-shim' && r?.shim) {
         shims.push({
           step: titleOf.get(s.id)!, position, measured: r.value === null ? '' : `${r.value} ${s.unit}`,
@@ -145,11 +145,11 @@ export function buildReportData(input: ReportInput): ReportData {
       if (e.payload.type === 'deviation.request') open = { kind: e.payload.kind, reason: e.payload.reason, by: e.actorName };
       else if ((e.payload.type === 'deviation.approve' || e.payload.type === 'deviation.reject') && open) {
         const decision = e.payload.type === 'deviation.approve' ? `approved by ${e.actorName}${e.payload.note ? `: ${e.payload.note}` : ''}` : `rejected by ${e.actorName}: ${e.payload.reason}`;
-        deviations.push({ step: titleOf.get(s.id)!, kind: open.kind, reason: open.reason, requestedBy: open.by, decision });
+        deviations.push({ stepId: s.id, step: titleOf.get(s.id)!, kind: open.kind, reason: open.reason, requestedBy: open.by, decision });
         open = null;
       }
     }
-    if (open) deviations.push({ step: titleOf.get(s.id)!, kind: open.kind, reason: open.reason, requestedBy: open.by, decision: 'waiting for a lead' });
+    if (open) deviations.push({ stepId: s.id, step: titleOf.get(s.id)!, kind: open.kind, reason: open.reason, requestedBy: open.by, decision: 'waiting for a lead' });
   }
   for (const t of tags) if (t.disposition === 'replace') addPart(t.part, 1, `tag ${t.position}: replace`);
   for (const f of input.findings ?? []) for (const p of f.parts) addPart(p, 1, `finding: ${f.title}`);
