@@ -7,7 +7,8 @@
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type PgBoss from 'pg-boss';
 import type { Transporter } from 'nodemailer';
-import { OutgoingMessage } from '../entities';
+import { Job, OutgoingMessage } from '../entities';
+import { notFound } from '../http';
 import type { OutgoingMessageEntity, OutgoingStatus } from '../entities/outgoing-message.entity';
 import { initORM } from '../db';
 import { config } from '../config';
@@ -105,6 +106,7 @@ export async function queueNotices(em: EntityManager, base: Omit<QueueMailInput,
 /** The messages sent for one job, newest first; starts the queue so waiting messages resume after a restart. */
 export async function listJobMessages(em: EntityManager, shopId: string, jobId: string): Promise<OutgoingMessageDto[]> {
   void queue().catch((e) => console.error('[queue] not started', e));
+  if ((await em.count(Job, { id: jobId, shopId })) === 0) throw notFound('That job');
   const rows = await em.find(OutgoingMessage, { shopId, jobId }, { orderBy: { createdAt: 'desc' }, limit: 200 });
   return rows.map(toDto);
 }

@@ -60,6 +60,7 @@ export const sendReportInput = z.object({
 
 /** Queues a run's report to an outside address: the PDF is rendered when the mail goes out, with a fresh read-only link. */
 export async function sendReport(em: EntityManager, member: Member, jobId: string, input: z.infer<typeof sendReportInput>): Promise<OutgoingMessageDto> {
+  if (!(await em.findOne(Job, { id: jobId, shopId: member.shopId }))) throw notFound('That job');
   const m = await loadRunMaterial(em, member.shopId, input.runId).catch((e) => {
     if (e instanceof AppError && e.code === 'not-found') throw new AppError('bad-request', 'That run is not part of this job.', { fields: { runId: 'Not a run of this job' } });
     throw e;

@@ -187,6 +187,9 @@ export const attachmentsQuery = z.union([
 
 /** Photos of a run step, tag, finding or whole job, oldest first. */
 export async function listAttachments(em: EntityManager, shopId: string, q: z.infer<typeof attachmentsQuery>): Promise<AttachmentDto[]> {
+  // The record asked about must be this shop's: another shop's id answers 404, like every read.
+  const owner = 'jobId' in q ? em.count(Job, { id: q.jobId, shopId }) : 'tagId' in q ? em.count(Tag, { id: q.tagId, shopId }) : 'findingId' in q ? em.count(Finding, { id: q.findingId, shopId }) : em.count(Run, { id: q.runId, shopId });
+  if ((await owner) === 0) throw notFound('jobId' in q ? 'That job' : 'tagId' in q ? 'That tag' : 'findingId' in q ? 'That finding' : 'That run');
   const where = 'jobId' in q ? { shopId, job: q.jobId } : 'tagId' in q ? { shopId, tagId: q.tagId } : 'findingId' in q ? { shopId, findingId: q.findingId } : { shopId, scopeKind: 'run-step' as const, runId: q.runId, stepId: q.stepId };
   const rows = await em.find(Attachment, where, { orderBy: { createdAt: 'asc', id: 'asc' } });
   return rows.map(attachmentDto);
