@@ -89,7 +89,7 @@ const MAX_JSON_BYTES = 2 * 1024 * 1024;
 
 /** Reads and validates a JSON body; malformed JSON and wrong content types are 400/415. */
 export async function readJson<S extends z.ZodType>(request: Request, schema: S): Promise<z.infer<S>> {
-  const type = request.headers.get('content-type') ?? '';
+  const type = (request.headers.get('content-type') ?? '').toLowerCase();
   if (!type.includes('application/json')) throw new AppError('unsupported-media-type', 'Send the request body as JSON (content-type: application/json).');
   const text = await request.text();
   if (text.length > MAX_JSON_BYTES) throw new AppError('payload-too-large', 'The request body is too large.');
@@ -99,5 +99,38 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S)
   } catch {
     throw new AppError('bad-request', 'The request body is not valid JSON.');
   }
+  const bad = unstorableText(data);
+  if (bad) throw new AppError('bad-request', `Some text cannot be saved: ${bad.why}.`, { fields: { [bad.path || '_']: bad.why } });
   return schema.parse(data);
+}
+
+// NUL cannot be stored in PostgreSQL text, and a lone UTF-16 surrogate would silently become
+// U+FFFD on the way to the database: both are refused rather than lost or changed.
+const NUL = /\u0000/;
+const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+
+/** The first string (value or key) in parsed JSON that the database cannot keep as sent. */
+export function unstorableText(v: unknown, path = ''): { path: string; why: string } | null {
+  if (typeof v === 'string') {
+    if (NUL.test(v)) return { path, why: 'it contains a NUL character' };
+    if (LONE_SURROGATE.test(v)) return { path, why: 'it contains an unpaired surrogate (broken unicode)' };
+    return null;
+  }
+  if (Array.isArray(v)) {
+    for (let i = 0; i < v.length; i++) {
+      const r = unstorableText(v[i], path ? `${path}.${i}` : String(i));
+      if (r) return r;
+    }
+    return null;
+  }
+  if (v && typeof v === 'object') {
+    for (const [k, x] of Object.entries(v)) {
+      const p = path ? `${path}.${k}` : k;
+      const rk = unstorableText(k, p);
+      if (rk) return rk;
+      const r = unstorableText(x, p);
+      if (r) return r;
+    }
+  }
+  return null;
 }
