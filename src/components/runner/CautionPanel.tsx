@@ -15,7 +15,7 @@ export function CautionPanel({ step, sync }: StepPanelProps & { step: StepOf<'ca
         {SEVERITY[step.severity]}
       </p>
       <HazardCautions hazards={step.hazards} />
-      <button type="button" className="tt-btn tt-btn-primary w-full text-2xl min-h-16" data-primary="true" data-ack="true" disabled={!can} onClick={() => void sync.record(event)} data-testid="acknowledge-caution">
+      <button type="button" className="tt-btn tt-btn-primary w-full text-2xl min-h-16" data-primary="true" data-ack="true" disabled={!can} onClick={() => sync.record(event)} data-testid="acknowledge-caution">
         {step.mustAcknowledge ? 'Acknowledge caution (A)' : 'I have read it — continue'}
       </button>
     </div>

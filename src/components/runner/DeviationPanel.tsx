@@ -10,16 +10,16 @@ import type { StepPanelProps } from './step-panel';
 export function DeviationForm({ step, kind, sync, onCancel }: StepPanelProps & { step: Step; kind: 'skip' | 'out-of-spec'; onCancel?: () => void }) {
   const [reason, setReason] = useState('');
   const [error, setError] = useState<string | null>(null);
-  const submit = async () => {
+  const submit = () => {
     if (!reason.trim()) {
       setError('Give a reason, so the lead knows what they are approving');
       return;
     }
     setError(null);
-    if (await sync.record({ type: 'deviation.request', stepId: step.id, kind, reason: reason.trim() })) onCancel?.();
+    if (sync.record({ type: 'deviation.request', stepId: step.id, kind, reason: reason.trim() })) onCancel?.();
   };
   return (
-    <form className="tt-card p-4 space-y-3 border-warn border-2" data-testid="deviation-form" onSubmit={(e) => { e.preventDefault(); void submit(); }}>
+    <form className="tt-card p-4 space-y-3 border-warn border-2" data-testid="deviation-form" onSubmit={(e) => { e.preventDefault(); submit(); }}>
       <h3 className="text-xl font-semibold">{kind === 'skip' ? 'Skip this step: ask a lead' : 'Readings out of spec: ask a lead to accept them'}</h3>
       <label className="tt-label" htmlFor="deviation-reason">Reason</label>
       <textarea id="deviation-reason" className="tt-input min-h-24" value={reason} maxLength={1000} onChange={(e) => setReason(e.target.value)} aria-invalid={!!error} aria-describedby={error ? 'deviation-error' : undefined} />
@@ -64,7 +64,7 @@ export function DeviationPending({ step, snapshot, sync }: StepPanelProps & { st
               <label className="tt-label" htmlFor="approve-note">Note (optional)</label>
               <input id="approve-note" className="tt-input" value={note} onChange={(e) => setNote(e.target.value)} />
               <div className="flex flex-wrap gap-3">
-                <button type="button" className="tt-btn tt-btn-primary text-xl min-h-16 flex-1" data-primary="true" disabled={!canApprove} onClick={() => void sync.record(approve)} data-testid="approve-deviation">
+                <button type="button" className="tt-btn tt-btn-primary text-xl min-h-16 flex-1" data-primary="true" disabled={!canApprove} onClick={() => sync.record(approve)} data-testid="approve-deviation">
                   Approve deviation
                 </button>
                 <button type="button" className="tt-btn tt-btn-quiet min-h-16" disabled={!canReject} onClick={() => setRejecting(true)} data-testid="reject-deviation">
@@ -78,7 +78,7 @@ export function DeviationPending({ step, snapshot, sync }: StepPanelProps & { st
               onSubmit={(e) => {
                 e.preventDefault();
                 if (!reason.trim()) return setError('Say why, so the technician knows what to redo');
-                void sync.record({ type: 'deviation.reject', stepId: step.id, reason: reason.trim() });
+                sync.record({ type: 'deviation.reject', stepId: step.id, reason: reason.trim() });
               }}
             >
               <label className="tt-label" htmlFor="reject-reason">Why is it rejected?</label>

@@ -46,7 +46,7 @@ export function EntryPad({ draft, onChange, label, unit }: { draft: string; onCh
       </div>
       <div className="grid grid-cols-3 gap-2" role="group" aria-label="Number keys">
         {KEYS.map((k) => (
-          <button key={k} type="button" className="tt-btn tt-btn-quiet text-3xl min-h-16" onClick={() => onChange(pressKey(draft, k))} aria-label={k === '⌫' ? 'Backspace' : k === '.' ? 'Decimal point' : k}>
+          <button key={k} type="button" tabIndex={-1} className="tt-btn tt-btn-quiet text-3xl min-h-16" onPointerDown={(e) => e.preventDefault()} onClick={() => onChange(pressKey(draft, k))} aria-label={k === '⌫' ? 'Backspace' : k === '.' ? 'Decimal point' : k}>
             {k}
           </button>
         ))}

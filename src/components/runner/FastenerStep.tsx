@@ -17,7 +17,7 @@ export function FastenerStep({ step, snapshot, sync, units }: StepPanelProps & {
   const canConfirm = next !== null && sync.can({ type: 'fastener.confirm', stepId: step.id, pass: next.pass, fastenerId: next.fastenerId });
   const confirm = (fastenerId: string) => {
     if (!next) return;
-    void sync.record({ type: 'fastener.confirm', stepId: step.id, pass: next.pass, fastenerId });
+    sync.record({ type: 'fastener.confirm', stepId: step.id, pass: next.pass, fastenerId });
   };
   const target = pass ? targetText(pass.target, units.torque) : null;
   const verb = step.direction === 'loosen' ? 'Loosening' : 'Tightening';

@@ -23,7 +23,7 @@ export function HoldPointPanel({ step, snapshot, sync }: StepPanelProps & { step
             {SIGN_MEANINGS.map((m) => <option key={m} value={m}>{m[0]!.toUpperCase() + m.slice(1)}</option>)}
           </select>
           <p className="text-muted">Sign-off with password re-entry comes later; this records your name, role, the time and the meaning.</p>
-          <button type="button" className="tt-btn tt-btn-primary w-full text-2xl min-h-16" data-primary="true" onClick={() => void sync.record(event)} data-testid="sign-hold">
+          <button type="button" className="tt-btn tt-btn-primary w-full text-2xl min-h-16" data-primary="true" onClick={() => sync.record(event)} data-testid="sign-hold">
             Sign hold point
           </button>
         </div>

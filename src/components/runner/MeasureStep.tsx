@@ -49,9 +49,9 @@ export function MeasureStep({ step, snapshot, sync, editable }: StepPanelProps &
   const canSubmit = editable && sync.can({ type: 'measure.submit', stepId: step.id });
   const saveIsPrimary = editable && (draft !== '' || !canSubmit);
 
-  const save = async () => {
+  const save = () => {
     if (!selected || draftValue === null) return;
-    if (await sync.record({ type: 'reading.enter', stepId: step.id, key: selected.key, value: draftValue })) {
+    if (sync.record({ type: 'reading.enter', stepId: step.id, key: selected.key, value: draftValue })) {
       setDraft('');
       setChosen(null);
     }
@@ -100,7 +100,7 @@ export function MeasureStep({ step, snapshot, sync, editable }: StepPanelProps &
           <div>
             <EntryPad draft={draft} onChange={setDraft} label={selected.label} unit={step.unit} />
             {problem && <p className="tt-field-error text-lg" role="alert">{problem}</p>}
-            <button type="button" className={`tt-btn ${saveIsPrimary ? 'tt-btn-primary' : 'tt-btn-quiet'} w-full text-2xl min-h-16 mt-3`} data-primary={saveIsPrimary ? 'true' : undefined} disabled={!canSave} onClick={() => void save()} data-testid="save-reading">
+            <button type="button" className={`tt-btn ${saveIsPrimary ? 'tt-btn-primary' : 'tt-btn-quiet'} w-full text-2xl min-h-16 mt-3`} data-primary={saveIsPrimary ? 'true' : undefined} disabled={!canSave} onClick={save} data-testid="save-reading">
               Save reading for {selected.label}
             </button>
           </div>
@@ -130,7 +130,7 @@ export function MeasureStep({ step, snapshot, sync, editable }: StepPanelProps &
         </table>
       )}
       {editable && (
-        <button type="button" className={`tt-btn ${!saveIsPrimary ? 'tt-btn-primary' : 'tt-btn-quiet'} w-full text-2xl min-h-16`} data-primary={!saveIsPrimary ? 'true' : undefined} disabled={!canSubmit} onClick={() => void sync.record({ type: 'measure.submit', stepId: step.id })} data-testid="submit-readings">
+        <button type="button" className={`tt-btn ${!saveIsPrimary ? 'tt-btn-primary' : 'tt-btn-quiet'} w-full text-2xl min-h-16`} data-primary={!saveIsPrimary ? 'true' : undefined} disabled={!canSubmit} onClick={() => sync.record({ type: 'measure.submit', stepId: step.id })} data-testid="submit-readings">
           Submit readings
         </button>
       )}

@@ -8,7 +8,7 @@ export function StartPanel({ step, sync, onSkip }: StepPanelProps & { step: Step
   const hasHazards = step.hazards.length > 0;
   return (
     <div className="flex flex-wrap gap-3">
-      <button type="button" className="tt-btn tt-btn-primary text-2xl min-h-16 flex-1" data-primary="true" data-ack={hasHazards ? 'true' : undefined} disabled={!can} onClick={() => void sync.record(event)} data-testid="start-step">
+      <button type="button" className="tt-btn tt-btn-primary text-2xl min-h-16 flex-1" data-primary="true" data-ack={hasHazards ? 'true' : undefined} disabled={!can} onClick={() => sync.record(event)} data-testid="start-step">
         {hasHazards ? 'I have read the cautions — start step' : 'Start step'}
       </button>
       <SkipButton step={step} sync={sync} onSkip={onSkip} />

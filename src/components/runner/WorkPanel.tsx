@@ -81,7 +81,7 @@ export function WorkPanel({ step, sync, units, onSkip }: StepPanelProps & { step
         <textarea id="step-note" className="tt-input min-h-20" value={note} maxLength={1000} onChange={(e) => setNote(e.target.value)} />
       </div>
       <div className="flex flex-wrap gap-3">
-        <button type="button" className="tt-btn tt-btn-primary text-2xl min-h-16 flex-1" data-primary="true" disabled={!can || !!appliedProblem} onClick={() => void sync.record(event)} data-testid="mark-done">
+        <button type="button" className="tt-btn tt-btn-primary text-2xl min-h-16 flex-1" data-primary="true" disabled={!can || !!appliedProblem} onClick={() => sync.record(event)} data-testid="mark-done">
           Mark done
         </button>
         <SkipButton step={step} sync={sync} onSkip={onSkip} />

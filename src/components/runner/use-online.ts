@@ -2,12 +2,15 @@
 import { useSyncExternalStore } from 'react';
 import { onlineManager } from '@tanstack/react-query';
 
+// Both sources notify: the window events may reach us before onlineManager has updated itself.
 const subscribe = (notify: () => void) => {
   window.addEventListener('online', notify);
   window.addEventListener('offline', notify);
+  const stop = onlineManager.subscribe(notify);
   return () => {
     window.removeEventListener('online', notify);
     window.removeEventListener('offline', notify);
+    stop();
   };
 };
 

@@ -125,11 +125,11 @@ export function useRunSync(initial: RunDto, viewer: Viewer) {
           const before = new Set(eventsRef.current.map((x) => x.seq));
           if (fresh.length) setServer(merge(eventsRef.current, fresh));
           else await fetchNewer();
+          // Only news is worth a message; an answer that raced a poll of our own events is not.
           const theirs = eventsRef.current.filter((x) => !before.has(x.seq));
           const first = theirs[0];
-          const who = first ? `${first.actor.name} ${describeEvent(first.payload, steps)}` : 'Someone recorded';
           const more = theirs.length > 1 ? ` (and ${theirs.length - 1} more)` : '';
-          setStatus({ kind: 'info', message: `${who}${more} first — you are up to date.` });
+          if (first) setStatus({ kind: 'info', message: `${first.actor.name} ${describeEvent(first.payload, steps)}${more} first — you are up to date.` });
           return { kind: 'conflict' };
         }
         setQueue(pendingRef.current.filter((p) => p.key !== entry.key));
@@ -159,16 +159,35 @@ export function useRunSync(initial: RunDto, viewer: Viewer) {
         if (dropped.length > 0)
           setStatus((s) => ({ kind: 'info', message: `${s?.message ?? ''} ${dropped.length === 1 ? 'One of your entries was' : `${dropped.length} of your entries were`} already covered and not sent again.`.trim() }));
       }
-      if (pendingRef.current.length > 0 || (await outbox().count(runId)) > 0) await flushRef.current();
+      if ((await outbox().count(runId)) > 0) await flushRef.current();
     } finally {
       setSending(false);
     }
   }, [outbox, runId, send, rebase, fetchNewer]);
   flushRef.current = flush;
 
-  /** Checks an event with the run machine, queues it and sends it; false (with a message) when refused. */
+  /** Keeps a queued entry in IndexedDB, then sends the queue; without storage it is sent straight away. */
+  const persistAndSend = useCallback(
+    async (entry: OutboxEntry) => {
+      try {
+        await outbox().add(entry);
+      } catch {
+        setStatus({ kind: 'error', message: 'This device could not keep the entry for later; it is sent now and lost if the connection drops. Check the browser storage settings.' });
+        const outcome = await send(entry);
+        if (outcome.kind === 'refused') setStatus({ kind: 'error', message: `Not recorded: ${outcome.message}` });
+        return;
+      }
+      await flush();
+    },
+    [outbox, send, flush],
+  );
+
+  /**
+   * Checks an event with the run machine and, when it is accepted, applies it at once and queues
+   * it for sending; false (with a message in the status region) when the run refuses it.
+   */
   const record = useCallback(
-    async (event: OutboxEvent): Promise<boolean> => {
+    (event: OutboxEvent): boolean => {
       const current = snapshotRef.current;
       if (!current) return false;
       const parsed = runEvent.safeParse({ ...event, actor });
@@ -185,19 +204,12 @@ export function useRunSync(initial: RunDto, viewer: Viewer) {
       const { actor: _a, ...body } = parsed.data;
       const entry: OutboxEntry = { key: uuid(), runId, event: body, expectedSeq: lastSeq() + pendingRef.current.length, queuedAt: new Date().toISOString(), device: deviceName() };
       setQueue([...pendingRef.current, entry]);
+      snapshotRef.current = withQueue(current, [entry]).snap;
       setStatus(null);
-      try {
-        await outbox().add(entry);
-      } catch {
-        setStatus({ kind: 'error', message: 'This device could not keep the entry for later; it is sent now and lost if the connection drops. Check the browser storage settings.' });
-        const outcome = await send(entry);
-        if (outcome.kind === 'refused') setStatus({ kind: 'error', message: `Not recorded: ${outcome.message}` });
-        return outcome.kind === 'sent';
-      }
-      void flush();
+      void persistAndSend(entry);
       return true;
     },
-    [actor, runId, outbox, flush, send],
+    [actor, runId, withQueue, persistAndSend],
   );
 
   // Events this device queued before a reload or while offline: show them and send them.
