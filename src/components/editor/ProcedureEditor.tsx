@@ -291,7 +291,7 @@ export default function ProcedureEditor({ revision, canEdit, canRelease }: Proce
               </div>
             )}
           </div>
-          <button type="button" className="tt-btn tt-btn-quiet" disabled={!selected} onClick={duplicate}>⧉ Duplicate</button>
+          <button type="button" className="tt-btn tt-btn-quiet" disabled={!selected} onClick={duplicate}>⊕ Duplicate</button>
           <button type="button" className="tt-btn tt-btn-quiet" disabled={selectedIndex <= 0 && !(selected && selected.section !== '' && selectedIndex === 0)} onClick={() => nudge(-1)} aria-label="Move selected step up">↑ Up</button>
           <button type="button" className="tt-btn tt-btn-quiet" disabled={selectedIndex < 0 || selectedIndex >= state.steps.length - 1} onClick={() => nudge(1)} aria-label="Move selected step down">↓ Down</button>
           <button type="button" className="tt-btn tt-btn-quiet" disabled={state.past.length === 0} onClick={undo}>↶ Undo</button>

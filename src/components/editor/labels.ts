@@ -19,7 +19,7 @@ export const KIND_MARKS: Record<StepKind, string> = {
   action: '▸',
   'fastener-sequence': '⁘',
   torque: '↻',
-  measure: '⌖',
+  measure: '⇔',
   'tag-part': '🏷',
   inspect: '◉',
   caution: '⚠',
