@@ -63,7 +63,10 @@ export function discoverRoutes(): DiscoveredRoute[] {
 
 /** Fills a pattern's dynamic segments: `/api/jobs/[id]` + {id: 'x'} → `/api/jobs/x`. */
 export function fillPattern(pattern: string, params: Record<string, string>): string {
-  return pattern.replace(/\[(?:\.\.\.)?(\w+)\]/g, (_, k: string) => encodeURIComponent(params[k] ?? 'missing'));
+  return pattern.replace(/\[(\.\.\.)?(\w+)\]/g, (_, rest: string | undefined, k: string) => {
+    const v = params[k] ?? 'missing';
+    return rest ? v.split('/').map(encodeURIComponent).join('/') : encodeURIComponent(v);
+  });
 }
 
 /** Imports a discovered route module (through vite under vitest) and returns its handlers. */
