@@ -97,8 +97,8 @@ describe('removed parts', () => {
     await form.getByLabel('Major — fix before assembly').check();
     await form.getByLabel('Send to the machine shop').check();
     await form.getByRole('button', { name: '+ Add a part' }).click();
-    await form.getByLabel('Part 1').fill('Crank pin sleeve, oversize');
-    await form.getByLabel('Quantity of part 1').fill('1');
+    await form.getByLabel('Part 1', { exact: true }).fill('Crank pin sleeve, oversize');
+    await form.getByLabel('Quantity of part 1', { exact: true }).fill('1');
     await form.getByRole('button', { name: 'Save finding' }).click();
     await page.getByTestId('finding-saved').waitFor();
 
@@ -162,8 +162,8 @@ describe('removed parts', () => {
       'Part,Quantity,Computed,Reasons',
       '"Crank pin sleeve, oversize",1,1,"Finding: Scoring on the crank pin, ""deep"""',
       'Rod bearing shell (demo),6,6,Replace step — Renew the rod bearings',
-      `Rod cap,1,1,Tag ${job.code}-ROD-CAP-ROD-2 (Rod 2) set to replace — Tag the rod caps`,
-      '"Rod cap bolt (demo)",4,4,"Torque-to-yield: 4 fasteners, never reused — Remove the rod cap bolts"',
+      `Rod cap,1,1,Tag ${job.code}-ROD-CAP-ROD-2 (Rod 2) set to replace`,
+      'Rod cap bolt (demo),4,4,"Torque-to-yield: 4 fasteners, never reused — Remove the rod cap bolts"',
       '',
     ]);
 
