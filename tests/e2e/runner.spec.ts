@@ -76,7 +76,11 @@ describe('runner', () => {
     // Tess finds the job among her jobs and opens the run.
     const page = tech.page;
     await page.goto('/jobs?technician=me');
-    await page.locator(`[data-testid="my-jobs"] [data-job-code="${job.code}"]`).getByRole('link', { name: 'Continue the run' }).click();
+    await page.locator(`[data-testid="my-jobs"] [data-job-code="${job.code}"]`).getByRole('link', { name: new RegExp(job.code) }).click();
+    await page.waitForURL(`**/jobs/${job.id}`);
+    await hydrated(page);
+    expect(await page.getByTestId('job-status').textContent()).toBe('Teardown');
+    await page.locator(`[data-testid="job-runs"] [data-run-id="${runId}"]`).getByRole('link', { name: 'Continue' }).click();
     await page.waitForURL(`**/runs/${runId}`);
     await hydrated(page, '[data-testid="runner"][data-hydrated="true"]');
     expect(await text(page, 'next-expected')).toBe('Next: start the step');
