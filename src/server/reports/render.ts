@@ -7,7 +7,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { createRequire } from 'node:module';
 import fontkit from '@pdf-lib/fontkit';
-import { PDFDocument, rgb, type PDFFont, type PDFPage } from 'pdf-lib';
+import { PDFDocument, PDFHexString, rgb, type PDFFont, type PDFPage } from 'pdf-lib';
 import { EXAMPLE_DATA_NOTE } from '../../domain/procedure/example-data';
 import { MEANING_LABELS, type SignoffMeaning } from '../../domain/signoff';
 import { columnWidths, pageLabel, withGlyphs, wrapText } from './layout';
@@ -46,6 +46,43 @@ const BAD = rgb(0.64, 0.14, 0.16);
 
 type Col = { header: string; weight: number };
 
+/**
+ * Lays text out glyph by glyph from a per-character cache instead of shaping every string with
+ * fontkit (which dominated the time of a long report). Reports lose kerning pairs, nothing else:
+ * Source Sans 3's latin subset has no ligatures we use.
+ */
+function fastFont(font: PDFFont): PDFFont {
+  const encode = font.encodeText.bind(font);
+  const width = font.widthOfTextAtSize.bind(font);
+  const hex = new Map<string, string>();
+  const adv = new Map<string, number>();
+  font.encodeText = (text: string) => {
+    let out = '';
+    for (const ch of text) {
+      let h = hex.get(ch);
+      if (h === undefined) {
+        h = encode(ch).asString();
+        hex.set(ch, h);
+      }
+      out += h;
+    }
+    return PDFHexString.of(out);
+  };
+  font.widthOfTextAtSize = (text: string, size: number) => {
+    let total = 0;
+    for (const ch of text) {
+      let w = adv.get(ch);
+      if (w === undefined) {
+        w = width(ch, 1);
+        adv.set(ch, w);
+      }
+      total += w;
+    }
+    return total * size;
+  };
+  return font;
+}
+
 /** A small flowing-text writer: headings, paragraphs and tables that break across pages. */
 class Writer {
   page!: PDFPage;
@@ -74,9 +111,25 @@ class Writer {
   ensure(h: number) {
     if (this.y - h < M + 24) this.newPage();
   }
+  /** Text widths at size 1, cached per word: fontkit's layout is slow, and reports repeat the same words thousands of times. */
+  private readonly widths: Record<Weight, Map<string, number>> = { 400: new Map(), 600: new Map(), 700: new Map() };
+  unitWidth(word: string, weight: Weight): number {
+    const cache = this.widths[weight];
+    let w = cache.get(word);
+    if (w === undefined) {
+      w = this.fonts[weight].widthOfTextAtSize(word, 1);
+      cache.set(word, w);
+    }
+    return w;
+  }
+  measure(t: string, size: number, weight: Weight): number {
+    let total = 0;
+    const words = t.split(' ');
+    for (const word of words) if (word) total += this.unitWidth(word, weight);
+    return (total + (words.length - 1) * this.unitWidth(' ', weight)) * size;
+  }
   lines(s: string, size: number, weight: Weight, width: number): string[] {
-    const font = this.fonts[weight];
-    return wrapText(this.text(s), width, (t) => font.widthOfTextAtSize(t, size));
+    return wrapText(this.text(s), width, (t) => this.measure(t, size, weight));
   }
   heading(s: string, size = 13) {
     this.ensure(size * 2.6);
@@ -149,9 +202,9 @@ export async function renderRunReport(data: ReportData): Promise<Uint8Array> {
   const doc = await PDFDocument.create();
   doc.registerFontkit(fontkit);
   const fonts = {
-    400: await doc.embedFont(fontFile(400).bytes, { subset: true }),
-    600: await doc.embedFont(fontFile(600).bytes, { subset: true }),
-    700: await doc.embedFont(fontFile(700).bytes, { subset: true }),
+    400: fastFont(await doc.embedFont(fontFile(400).bytes, { subset: true })),
+    600: fastFont(await doc.embedFont(fontFile(600).bytes, { subset: true })),
+    700: fastFont(await doc.embedFont(fontFile(700).bytes, { subset: true })),
   } as Record<Weight, PDFFont>;
   const has = (cp: number) => fontFile(400).has(cp) && fontFile(700).has(cp);
   doc.setTitle(`${data.title} ${data.job.code} — ${data.procedure.name}`);

@@ -30,6 +30,8 @@ export type ReportInput = {
   extraParts?: Array<{ part: string; quantity: number; why: string }>;
   photos?: number;
   generatedAt: string;
+  /** The replayed run, when the caller has it already (saves a second replay). */
+  snapshot?: ReturnType<typeof replay>;
 };
 
 export type ReadingRow = { stepId: string; step: string; position: string; readings: string; result: string; spec: string; inSpec: boolean | null };
@@ -66,7 +68,7 @@ const specText = (s: StepOf<'measure'>) => `${s.spec.nominal} (${s.spec.min} to 
 /** Everything a report shows, from the run's data. */
 export function buildReportData(input: ReportInput): ReportData {
   const kind = reportKindOf(input.procedure.kind);
-  const snapshot = replay(input.steps, input.events.map((e) => e.payload));
+  const snapshot = input.snapshot ?? replay(input.steps, input.events.map((e) => e.payload));
   const states = stepStates(snapshot);
   const titleOf = new Map(input.steps.map((s, i) => [s.id, `${i + 1}. ${s.title}`]));
   const byStep = new Map<string, ReportEvent[]>();

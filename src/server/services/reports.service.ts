@@ -32,6 +32,7 @@ export async function reportInputOf(em: EntityManager, m: RunMaterial): Promise<
     })),
     photos: m.photos.length,
     generatedAt: new Date().toISOString(),
+    snapshot: m.snapshot,
   };
 }
 
