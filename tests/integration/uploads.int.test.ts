@@ -149,7 +149,8 @@ describe('another shop', () => {
     const p = await presign({}, b);
     expect(p.status).toBe(404);
     const list = await callRoute(listRoute.GET, { path: `/api/attachments?jobId=${jobId}`, as: as(b) });
-    expect(list.body.attachments).toEqual([]);
+    expect(list.status).toBe(404);
+    expect(list.body.error.message).toBe('That job was not found.');
   });
 
   it('a reviewer cannot upload (403), a signed-out caller gets 401', async () => {
