@@ -82,7 +82,7 @@ for (const extra of ['./upload-figure', './report-figure']) {
     const mod = (await import(extra)) as { figure: (ctx: { lead: string; tech: string; shop: typeof shop }) => Promise<Array<[string, string, string, string, string]>> };
     rows.push(...(await mod.figure({ lead, tech, shop })));
   } catch (e) {
-    if ((e as { code?: string }).code !== 'ERR_MODULE_NOT_FOUND') row(`${extra} failed`, String(e).slice(0, 60), '', '', '');
+    row(`${extra.slice(2)} failed`, String(e).slice(0, 80), '', '', '');
   }
 }
 
