@@ -2,7 +2,7 @@
 import { randomUUID } from 'node:crypto';
 import autocannon from 'autocannon';
 
-export type LoadResult = { rps: number; p50: number; p99: number; non2xx: number; total: number };
+export type LoadResult = { rps: number; p50: number; p99: number; non2xx: number; total: number; statuses?: Record<string, number> };
 
 const summarise = (r: autocannon.Result): LoadResult => ({ rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, non2xx: r.non2xx, total: r.requests.total });
 
@@ -17,6 +17,7 @@ export async function loadGet(url: string, cookie: string, seconds: number): Pro
  */
 export async function loadPost(base: string, prefix: string, runIds: string[], events: unknown[], cookie: string, origin: string, seconds: number): Promise<LoadResult> {
   let nextRun = 0;
+  const statuses: Record<string, number> = {};
   const r = await autocannon({
     url: base,
     connections: runIds.length,
@@ -31,11 +32,13 @@ export async function loadPost(base: string, prefix: string, runIds: string[], e
           return { ...req, path: `${prefix}/runs/${ctx.runId}/events`, body: JSON.stringify({ event, idempotencyKey: randomUUID(), expectedSeq: ctx.seq }) };
         },
         onResponse: (status: number, body: string, ctx: any) => {
+          const key = status === 409 || status === 400 ? `${status} ${(/"code":"([^"]+)"/.exec(body) ?? [])[1] ?? ''}` : String(status);
+          statuses[key] = (statuses[key] ?? 0) + 1;
           if (status === 201) { ctx.i += 1; ctx.seq = JSON.parse(body).lastSeq; }
           else if (status === 409) { try { const b = JSON.parse(body); if (typeof b.error?.lastSeq === 'number') ctx.seq = b.error.lastSeq; } catch { /* keep */ } }
         },
       },
     ],
   } as autocannon.Options);
-  return summarise(r);
+  return { ...summarise(r), statuses };
 }

@@ -58,7 +58,7 @@ console.log(`Load: ${seconds} s each at 32 connections …`);
 const line = (what: string, a: LoadResult, b: LoadResult, target: string) => {
   row(`${what} req/s`, fmt(a.rps), fmt(b.rps), ratio(a.rps, b.rps), target);
   row(`${what} p50 / p99 ms`, `${a.p50} / ${a.p99}`, `${b.p50} / ${b.p99}`, '', '');
-  if (a.non2xx || b.non2xx) row(`${what} non-2xx responses`, String(a.non2xx), String(b.non2xx), '', '0');
+  if (a.non2xx || b.non2xx) row(`${what} non-2xx responses`, `${a.non2xx} ${a.statuses ? JSON.stringify(a.statuses) : ''}`, String(b.non2xx), '', '0');
 };
 const oursGet = await loadGet(`${APP_URL}/api/runs/${shop.read500}`, tech, seconds);
 const baseGet = await loadGet(`${baseUrl}/runs/${shop.read500}`, tech, seconds);
