@@ -80,7 +80,9 @@ export function startCluster({ bin, dataDir, port }) {
       ctl(['-m', 'fast', '-w', 'stop']);
     },
     restart() {
-      ctl(['-m', 'fast', '-w', 'restart']);
+      // With -l the new server logs to its file; without it, it would hold this process's output
+      // pipe open and the synchronous pg_ctl call would never return.
+      ctl(['-m', 'fast', '-w', '-l', logFile, 'restart']);
     },
   };
 }
