@@ -15,6 +15,7 @@ import * as jobRunsRoute from '../../src/pages/api/jobs/[id]/runs';
 import * as runRoute from '../../src/pages/api/runs/[id]/index';
 import * as eventsRoute from '../../src/pages/api/runs/[id]/events';
 import * as historyRoute from '../../src/pages/api/runs/[id]/history';
+import * as signoffsRoute from '../../src/pages/api/runs/[id]/signoffs';
 
 let orm: MikroORM;
 let a: TestShop;
@@ -48,13 +49,24 @@ async function newRun(shop = a, rev = revisionId): Promise<string> {
 const post = (runId: string, event: Record<string, unknown>, expectedSeq: number, role: Role = 'technician', idempotencyKey: string = randomUUID(), shop = a) =>
   callRoute(eventsRoute.POST, { method: 'POST', params: { id: runId }, body: { event, idempotencyKey, expectedSeq, device: 'bench tablet 2' }, as: as(shop, role) });
 
+/** Hold points are signed on the sign-off route, with the signer's password (tests/integration/support/shops.ts). */
+const sign = (runId: string, stepId: string, role: Role = 'reviewer', shop = a, password = 'integration-pass-1') =>
+  callRoute(signoffsRoute.POST, { method: 'POST', params: { id: runId }, body: { meaning: 'approved-for-assembly', password, stepId }, as: as(shop, role) });
+
+/** Posts FULL[i]: work through the events route, the hold point's signature through the sign-off route. */
+const send = (runId: string, i: number) => {
+  const [role, ev] = FULL[i]!;
+  return ev.type === 'hold.sign' ? sign(runId, String(ev.stepId), role) : post(runId, ev, i, role);
+};
+
 /** The whole small run, in order, with the role that sends each event. */
 const FULL: Array<[Role, Record<string, unknown>]> = [
   ['technician', { type: 'step.start', stepId: 's-clean' }],
   ['technician', { type: 'step.complete', stepId: 's-clean', note: 'Degreased' }],
   ['technician', { type: 'step.start', stepId: 's-bolts' }],
   ...[1, 2].flatMap((pass) => ORDER.map((fastenerId): [Role, Record<string, unknown>] => ['technician', { type: 'fastener.confirm', stepId: 's-bolts', pass, fastenerId }])),
-  ['reviewer', { type: 'hold.sign', stepId: 's-review', meaning: 'Cover removed per the procedure' }],
+  // What the sign-off route posts for meaning 'approved-for-assembly'.
+  ['reviewer', { type: 'hold.sign', stepId: 's-review', meaning: 'Approved for assembly' }],
 ];
 
 describe('starting a run', () => {
@@ -176,15 +188,26 @@ describe('recording events', () => {
     expect((await callRoute(runRoute.GET, { params: { id: runId }, as: as(a, 'technician') })).body.run.lastSeq).toBe(2);
   });
 
-  it('lets only the machine’s roles sign: a reviewer cannot work steps (403), a technician cannot sign (403)', async () => {
+  it('refuses hold.sign on the plain events route (403, nothing stored); the sign-off route signs, for the hold point’s roles only', async () => {
     const runId = await newRun();
     const byReviewer = await post(runId, FULL[0]![1], 0, 'reviewer');
     expect(byReviewer.status).toBe(403);
     expect(byReviewer.body.error.code).toBe('forbidden');
     for (const [i, [role, ev]] of FULL.slice(0, -1).entries()) expect((await post(runId, ev, i, role)).status).toBe(201);
-    const techSign = await post(runId, FULL.at(-1)![1], FULL.length - 1, 'technician');
+    for (const role of ['reviewer', 'technician', 'lead', 'owner'] as const) {
+      const plain = await post(runId, FULL.at(-1)![1], FULL.length - 1, role);
+      expect(plain.status, role).toBe(403);
+      expect(plain.body.error).toMatchObject({ code: 'forbidden', message: 'Sign hold points on the sign-off page, with your password.' });
+    }
+    expect(await orm.em.fork().count(RunEvent, { run: runId })).toBe(FULL.length - 1);
+    // The hold point lists reviewer as its signer (the machine's own isSigner rule is pinned in run-refusals.test.ts).
+    const techSign = await sign(runId, 's-review', 'technician');
     expect(techSign.status).toBe(403);
-    expect(techSign.body.error).toMatchObject({ code: 'not-allowed', message: 'Only a reviewer may sign this hold point' });
+    expect(techSign.body.error).toMatchObject({ code: 'forbidden', message: expect.stringContaining('may not sign this hold point') });
+    expect(await orm.em.fork().count(RunEvent, { run: runId })).toBe(FULL.length - 1);
+    const signed = await sign(runId, 's-review');
+    expect(signed.status, JSON.stringify(signed.body)).toBe(201);
+    expect(signed.body).toMatchObject({ stepId: 's-review', signerRole: 'reviewer', runSeq: FULL.length });
   });
 });
 
@@ -193,18 +216,16 @@ describe('a full run', () => {
     const runId = await newRun();
     const steps = (await getReleasedRevisionContent(orm.em.fork(), a.id, revisionId)).steps;
     let live: RunSnapshot = startRun(steps);
-    let last: { body: any } | undefined;
     for (const [i, [role, ev]] of FULL.entries()) {
-      const r = await post(runId, ev, i, role);
+      const r = await send(runId, i);
       expect(r.status, JSON.stringify(r.body)).toBe(201);
-      expect(r.body.event.seq).toBe(i + 1);
+      expect(ev.type === 'hold.sign' ? r.body.runSeq : r.body.event.seq).toBe(i + 1);
       const applied = applyEvent(steps, storeRun(live), { ...ev, actor: { userId: a.members[role].userId, role } });
       if (!applied.ok) throw new Error(applied.message);
       live = applied.snapshot;
-      last = r;
     }
-    expect(last!.body.progress).toEqual({ done: 3, total: 3, complete: true });
-    expect(last!.body.next).toBeNull();
+    expect(runProgress(live)).toEqual({ done: 3, total: 3, complete: true });
+    expect(nextExpected(live)).toBeNull();
 
     const rows = await orm.em.fork().find(RunEvent, { run: runId }, { orderBy: { seq: 'asc' } });
     const fromDb = replay(steps, rows.map((r) => r.payload));
@@ -224,7 +245,8 @@ describe('a full run', () => {
     const history = await callRoute(historyRoute.GET, { params: { id: runId }, as: as(a, 'lead') });
     expect(history.status).toBe(200);
     expect(history.body.revision).toMatchObject({ id: revisionId, number: 1, procedureName: expect.stringContaining('Demo cover teardown') });
-    expect(history.body.events.at(-1)).toMatchObject({ type: 'hold.sign', actor: { name: a.members.reviewer.name, role: 'reviewer' }, device: 'bench tablet 2' });
+    expect(history.body.events.at(-2)).toMatchObject({ type: 'fastener.confirm', device: 'bench tablet 2' });
+    expect(history.body.events.at(-1)).toMatchObject({ type: 'hold.sign', actor: { name: a.members.reviewer.name, role: 'reviewer' }, device: 'sign-off' });
 
     const after = await callRoute(eventsRoute.GET, { path: `/api/runs/${runId}/events?after=7`, params: { id: runId }, as: as(a, 'technician') });
     expect(after.body).toMatchObject({ lastSeq: FULL.length });
@@ -263,7 +285,7 @@ describe('shop scoping', () => {
 describe('demo seed', () => {
   it('seeds a job part-way through its teardown and one waiting only for the final sign-off, both replayable', async () => {
     const { DemoSeeder } = await import('../../src/server/seeders/demo.seeder');
-    const { DEMO_SHOP, DEMO_MEMBERS } = await import('../../src/server/seeders/demo-people');
+    const { DEMO_SHOP, DEMO_MEMBERS, DEMO_PASSWORD } = await import('../../src/server/seeders/demo-people');
     await orm.seeder.seed(DemoSeeder);
     const [shop] = await orm.em.fork().getConnection().execute<Array<{ id: string; name: string }>>(`select id, name from organization where slug = ?`, [DEMO_SHOP.slug]);
     const users = await orm.em.fork().getConnection().execute<Array<{ id: string; email: string }>>(`select id, email from "user" where email like '%@demo.torquetrail.test'`);
@@ -289,8 +311,11 @@ describe('demo seed', () => {
     expect(build.progress.done).toBe(build.progress.total - 1);
     expect(build.next).toBe('Waiting for a reviewer to sign the hold point');
     const { body: state } = await callRoute(runRoute.GET, { params: { id: build.id }, as: as(demo, 'reviewer') });
-    const sign = await post(build.id, { type: 'hold.sign', stepId: 'as-33-build-sign-off', meaning: 'Build checked against the procedure' }, state.run.lastSeq, 'reviewer', randomUUID(), demo);
-    expect(sign.status, JSON.stringify(sign.body)).toBe(201);
-    expect(sign.body.progress.complete).toBe(true);
+    const plain = await post(build.id, { type: 'hold.sign', stepId: 'as-33-build-sign-off', meaning: 'Build checked against the procedure' }, state.run.lastSeq, 'reviewer', randomUUID(), demo);
+    expect(plain.status).toBe(403);
+    const signed = await sign(build.id, 'as-33-build-sign-off', 'reviewer', demo, DEMO_PASSWORD);
+    expect(signed.status, JSON.stringify(signed.body)).toBe(201);
+    expect(signed.body.runSeq).toBe(state.run.lastSeq + 1);
+    expect((await callRoute(runRoute.GET, { params: { id: build.id }, as: as(demo, 'reviewer') })).body.progress.complete).toBe(true);
   });
 });

@@ -138,12 +138,22 @@ type Outcome =
   | { kind: 'stored'; row: RunEventEntity; snapshot: RunSnapshot; lastSeq: number; created: boolean }
   | { kind: 'stale'; lastSeq: number; rows: RunEventEntity[] };
 
+/** Events only the sign-off service may post: it re-checks the password and stores the Signature first. */
+const SIGNATURE_EVENTS = new Set(['hold.sign']);
+
+export type RecordOptions = {
+  /** Set only by the sign-off service, after the password re-entry and the own-work rule. */
+  signature?: boolean;
+};
+
 /**
  * Records one event from a member: the server fills the actor from the session. Answers
- * `{ status: 201 }` for a new event, `{ status: 200 }` for a retry of a stored one.
+ * `{ status: 201 }` for a new event, `{ status: 200 }` for a retry of a stored one. A hold
+ * point's `hold.sign` is refused unless it comes from the sign-off service (`signature`).
  */
-export async function recordRunEvent(em: EntityManager, member: Member, runId: string, input: z.infer<typeof recordEventInput>): Promise<{ status: 200 | 201; body: RecordedDto }> {
+export async function recordRunEvent(em: EntityManager, member: Member, runId: string, input: z.infer<typeof recordEventInput>, options: RecordOptions = {}): Promise<{ status: 200 | 201; body: RecordedDto }> {
   const type = typeof input.event.type === 'string' ? input.event.type : '';
+  if (SIGNATURE_EVENTS.has(type) && !options.signature) throw new AppError('forbidden', 'Sign hold points on the sign-off page, with your password.');
   if (!ROLE_RULED_EVENTS.has(type) && !roleCan(member.role, { run: ['record'] })) throw new AppError('forbidden', `Your role (${member.role}) may not record work on a run.`);
   const event = { ...input.event, actor: { userId: member.userId, role: member.role } };
 

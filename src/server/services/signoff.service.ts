@@ -202,7 +202,7 @@ export async function signRun(em: EntityManager, member: Member, runId: string, 
         idempotencyKey: randomUUID(),
         expectedSeq: m.run.lastSeq,
         device: 'sign-off',
-      });
+      }, { signature: true });
       runSeq = posted.body.lastSeq;
     }
     const sig = tem.create(Signature, {

@@ -14,6 +14,8 @@ export const GET = handle(async (ctx) => {
 /**
  * Record one event. The role check depends on the event (work needs `run:record`; approvals,
  * signatures and send-backs follow the run machine's own role rules), so it runs in the service.
+ * A hold point's `hold.sign` is refused here (403): it is posted only by POST .../signoffs, which
+ * re-checks the password and stores the signed record.
  */
 export const POST = handle(async (ctx) => {
   const m = requireMember(ctx);
