@@ -17,7 +17,7 @@ export const KIND_LABELS: Record<StepKind, string> = {
 /** A glyph per kind so the list never relies on colour. */
 export const KIND_MARKS: Record<StepKind, string> = {
   action: '▸',
-  'fastener-sequence': '⁘',
+  'fastener-sequence': '⊚',
   torque: '↻',
   measure: '⇔',
   'tag-part': '🏷',
