@@ -13,7 +13,7 @@ import { freePort, stopChild } from './lib/sh.mjs';
 import { say, fail } from './lib/log.mjs';
 
 const KILLS = Number(process.env.SOAK_KILLS ?? 8);
-const GAP_MS = Number(process.env.SOAK_GAP_MS ?? 3000);
+const GAP_MS = Number(process.env.SOAK_GAP_MS ?? 5000);
 const dataDir = path.join(root, '.data', `soak-${process.pid}`);
 let stack;
 let app;
