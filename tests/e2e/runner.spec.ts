@@ -8,6 +8,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { APIRequestContext, Browser, BrowserContext, Page } from 'playwright-core';
 import { hydrated, launch, newContext, signInAs } from './support/browser';
+import { DEMO_PASSWORD } from '../../src/server/seeders/demo-people';
 
 const EXAMPLE = "Example data — not a maker's specification.";
 const FASTENERS = Array.from({ length: 10 }, (_, i) => ({ id: `hb${i + 1}`, label: String(i + 1), x: 100 + (i % 5) * 180, y: i < 5 ? 150 : 400 }));
@@ -80,6 +81,15 @@ describe('runner', () => {
     await page.waitForURL(`**/jobs/${job.id}`);
     await hydrated(page);
     expect(await page.getByTestId('job-status').textContent()).toBe('Teardown');
+    // The job page links to its parts pages and label sheet, and per run to its report and history.
+    const jobLinks = page.getByTestId('job-links');
+    for (const [name, href] of [['Tag board', `/jobs/${job.id}/tags`], ['Findings', `/jobs/${job.id}/findings`], ['Parts to replace', `/jobs/${job.id}/parts`], ['Label sheet (PDF)', `/api/jobs/${job.id}/labels.pdf`]]) {
+      expect(await jobLinks.getByRole('link', { name, exact: true }).getAttribute('href'), name).toBe(href);
+    }
+    const runRow = (p: Page) => p.locator(`[data-testid="job-runs"] [data-run-id="${runId}"]`);
+    expect(await runRow(page).getByRole('link', { name: 'Report (PDF)', exact: true }).getAttribute('href')).toBe(`/api/runs/${runId}/report.pdf`);
+    expect(await runRow(page).getByRole('link', { name: 'History', exact: true }).getAttribute('href')).toBe(`/runs/${runId}/history`);
+    expect(await runRow(page).getByRole('link', { name: 'Sign-off' }).count()).toBe(0);
     await page.locator(`[data-testid="job-runs"] [data-run-id="${runId}"]`).getByRole('link', { name: 'Continue' }).click();
     await page.waitForURL(`**/runs/${runId}`);
     await hydrated(page, '[data-testid="runner"][data-hydrated="true"]');
@@ -179,11 +189,17 @@ describe('runner', () => {
 
     // Hold point: Tess waits; the reviewer signs in a third browser.
     await poll(() => text(page, 'next-expected')).toBe('Waiting for a reviewer to sign the hold point');
-    expect(await page.getByTestId('sign-hold').count()).toBe(0);
+    expect(await page.getByTestId('review-hold').count()).toBe(0);
+    // The runner sends the reviewer to the sign-off page; the signature needs the meaning and the password.
     await reviewer.page.goto(`/runs/${runId}`);
     await hydrated(reviewer.page, '[data-testid="runner"][data-hydrated="true"]');
-    await reviewer.page.getByLabel('Meaning of your signature').selectOption('approved for assembly');
-    await reviewer.page.getByTestId('sign-hold').click();
+    await reviewer.page.getByRole('link', { name: 'Review and sign' }).click();
+    await reviewer.page.waitForURL(`**/runs/${runId}/signoff?step=h-review`);
+    await hydrated(reviewer.page);
+    await reviewer.page.getByLabel('Approved for assembly').check();
+    await reviewer.page.getByLabel('Your password').fill(DEMO_PASSWORD);
+    await reviewer.page.getByTestId('sign-submit').click();
+    await poll(() => reviewer.page.getByTestId('status').textContent()).toMatch(/Signed: Approved for assembly/);
     await poll(() => page.getByTestId('current-step').getAttribute('data-kind')).toBe('action');
     expect(await page.locator('[data-step-id="h-review"][data-state="signed"]').count()).toBe(1);
 
@@ -192,14 +208,24 @@ describe('runner', () => {
     await page.getByTestId('run-complete').waitFor();
     await poll(() => api.get(`/api/runs/${runId}/events`).then((r) => r.json()).then((b) => b.events.at(-1)?.type)).toBe('step.complete');
 
+    // Once the run is complete the reviewer's job page links to its sign-off; the linked PDFs open.
+    await reviewer.page.goto(`/jobs/${job.id}`);
+    await hydrated(reviewer.page);
+    expect(await runRow(reviewer.page).getByRole('link', { name: 'Sign-off', exact: true }).getAttribute('href')).toBe(`/runs/${runId}/signoff`);
+    for (const href of [`/api/runs/${runId}/report.pdf`, `/api/jobs/${job.id}/labels.pdf`]) {
+      const pdf = await reviewer.ctx.request.get(href);
+      expect(pdf.status(), href).toBe(200);
+      expect(pdf.headers()['content-type']).toContain('application/pdf');
+    }
+
     // History: every event in order, under the revision the run was pinned to.
     await page.goto(`/runs/${runId}/history`);
     expect(await page.getByTestId('history-revision').textContent()).toContain('revision 1');
     const rows = page.locator('[data-testid="history-table"] tbody tr');
-    const final = (await (await api.get(`/api/runs/${runId}/events`)).json()).events as Array<{ type: string }>;
+    const final = (await (await api.get(`/api/runs/${runId}/events`)).json()).events as Array<{ type: string; payload: { meaning?: string }; device: string | null }>;
     expect(await rows.count()).toBe(final.length);
     expect(await rows.nth(final.length - 1).getAttribute('data-type')).toBe('step.complete');
     expect(final.filter((e) => e.type === 'fastener.confirm')).toHaveLength(20);
-    expect(final.map((e) => e.type)).toContain('hold.sign');
+    expect(final.find((e) => e.type === 'hold.sign')).toMatchObject({ payload: { meaning: 'Approved for assembly' }, device: 'sign-off' });
   });
 });

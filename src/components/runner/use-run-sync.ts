@@ -253,6 +253,7 @@ export function useRunSync(initial: RunDto, viewer: Viewer) {
   );
 
   return {
+    runId,
     can,
     steps,
     snapshot,
