@@ -1,4 +1,7 @@
-/** One job: the unit, its status and the moves allowed to this member, who works it, its runs, and "Start a run". */
+/**
+ * One job: the unit, its status and the moves allowed to this member, who works it, its parts
+ * pages and label sheet, its runs (traveler, report PDF, history, sign-off), and "Start a run".
+ */
 import { useEffect, useState } from 'react';
 import { QueryClient, QueryClientProvider, useMutation } from '@tanstack/react-query';
 import { JOB_STATUS_LABELS, type JobStatus } from '../../domain/job-status';
@@ -7,7 +10,8 @@ import { StatusRegion, type Status } from '../ui/StatusRegion';
 import { JobStatusMark } from './JobStatusMark';
 import type { JobDto, RevisionOption } from './types';
 
-type Props = { initial: JobDto; revisions: RevisionOption[]; canStartRun: boolean };
+/** `canReview`: this member signs off runs or sends work back, so complete runs link to the sign-off page. */
+type Props = { initial: JobDto; revisions: RevisionOption[]; canStartRun: boolean; canReview: boolean };
 
 export default function JobDetail(props: Props) {
   const [client] = useState(() => new QueryClient());
@@ -20,7 +24,7 @@ export default function JobDetail(props: Props) {
 
 const message = (e: unknown, fallback: string) => (isApiError(e) ? e.message : fallback);
 
-function Detail({ initial, revisions, canStartRun }: Props) {
+function Detail({ initial, revisions, canStartRun, canReview }: Props) {
   const [job, setJob] = useState(initial);
   const [status, setStatus] = useState<Status>(null);
   const [revisionId, setRevisionId] = useState(revisions[0]?.id ?? '');
@@ -76,6 +80,15 @@ function Detail({ initial, revisions, canStartRun }: Props) {
           )}
         </div>
       </section>
+      <nav className="tt-card p-5 space-y-3" aria-labelledby="job-parts-h" data-testid="job-links">
+        <h2 id="job-parts-h" className="text-xl font-semibold">Parts and labels</h2>
+        <div className="flex flex-wrap gap-3">
+          <a className="tt-btn tt-btn-quiet" href={`/jobs/${job.id}/tags`}><span aria-hidden="true">🏷</span> Tag board</a>
+          <a className="tt-btn tt-btn-quiet" href={`/jobs/${job.id}/findings`}><span aria-hidden="true">⚠</span> Findings</a>
+          <a className="tt-btn tt-btn-quiet" href={`/jobs/${job.id}/parts`}><span aria-hidden="true">☰</span> Parts to replace</a>
+          <a className="tt-btn tt-btn-quiet" href={`/api/jobs/${job.id}/labels.pdf`}><span aria-hidden="true">⎙</span> Label sheet (PDF)</a>
+        </div>
+      </nav>
       <section className="tt-card p-5 space-y-3">
         <h2 className="text-xl font-semibold">Runs</h2>
         {job.runs.length === 0 ? (
@@ -94,7 +107,12 @@ function Detail({ initial, revisions, canStartRun }: Props) {
                       <div className="h-full bg-accent" style={{ width: `${pct}%` }} />
                     </div>
                   </div>
-                  <a className="tt-btn tt-btn-primary" href={`/runs/${r.id}`}>{r.status === 'complete' ? 'Open traveler' : 'Continue'}</a>
+                  <div className="flex flex-wrap gap-2" data-testid="run-links">
+                    <a className="tt-btn tt-btn-primary" href={`/runs/${r.id}`}>{r.status === 'complete' ? 'Open traveler' : 'Continue'}</a>
+                    <a className="tt-btn tt-btn-quiet" href={`/api/runs/${r.id}/report.pdf`}><span aria-hidden="true">⎙</span> Report (PDF)</a>
+                    <a className="tt-btn tt-btn-quiet" href={`/runs/${r.id}/history`}><span aria-hidden="true">⌚</span> History</a>
+                    {canReview && r.status === 'complete' && <a className="tt-btn tt-btn-quiet" href={`/runs/${r.id}/signoff`}><span aria-hidden="true">✎</span> Sign-off</a>}
+                  </div>
                 </li>
               );
             })}
