@@ -3,7 +3,7 @@ import { useState } from 'react';
 import { useForm, useFieldArray } from 'react-hook-form';
 import { api, isApiError } from '../../lib/api-client';
 import { StatusRegion, type Status } from '../ui/StatusRegion';
-import PhotoUploader from './PhotoUploader';
+import { LazyPhotoUploader } from './LazyPhotoUploader';
 import type { FindingDto } from './types';
 
 type Props = { jobId: string; runId?: string; stepId?: string; onSaved?: (f: FindingDto) => void; onClose?: () => void };
@@ -48,7 +48,7 @@ export default function FindingForm({ jobId, runId, stepId, onSaved, onClose }: 
       <section className="tt-card p-4 space-y-3" data-testid="finding-saved">
         <StatusRegion status={status} />
         <p className="text-lg"><strong>{saved.what}</strong>{saved.where ? ` — ${saved.where}` : ''}</p>
-        <PhotoUploader scope={{ kind: 'finding', findingId: saved.id }} title="Photos of the finding" />
+        <LazyPhotoUploader scope={{ kind: 'finding', findingId: saved.id }} title="Photos of the finding" />
         {onClose && <button type="button" className="tt-btn tt-btn-quiet" onClick={onClose}>Done</button>}
       </section>
     );

@@ -7,7 +7,7 @@ import type { Step } from '../../domain/procedure/schema';
 import { roleCan } from '../../lib/access';
 import { api } from '../../lib/api-client';
 import FindingForm from './FindingForm';
-import PhotoUploader from './PhotoUploader';
+import { LazyPhotoUploader } from './LazyPhotoUploader';
 import type { AttachmentDto } from './types';
 
 type Props = { runId: string; jobId: string; step: Step; role: string };
@@ -35,7 +35,7 @@ export function StepExtras({ runId, jobId, step, role }: Props) {
     <section className="tt-card p-4 space-y-3 tt-no-print" data-testid="step-extras" aria-label="Photos and findings">
       {loadError && <p className="tt-status rounded-md px-4 py-3" data-kind="error">The step's photos could not be loaded: {loadError}</p>}
       {showPhotos ? (
-        photos && <PhotoUploader key={step.id} scope={{ kind: 'run-step', runId, stepId: step.id }} initial={photos} title={step.kind === 'tag-part' ? `Photos of the ${step.partName.toLowerCase()}` : 'Photos of this step'} />
+        photos && <LazyPhotoUploader key={step.id} scope={{ kind: 'run-step', runId, stepId: step.id }} initial={photos} title={step.kind === 'tag-part' ? `Photos of the ${step.partName.toLowerCase()}` : 'Photos of this step'} />
       ) : (
         <button type="button" className="tt-btn tt-btn-quiet" onClick={() => setShowPhotos(true)}>Add photos</button>
       )}
