@@ -1,19 +1,9 @@
 import { fc, test as fcTest } from '@fast-check/vitest';
 import { describe, expect, it } from 'vitest';
-import { DomainError } from './errors';
 import { circleLayout, gridLayout, perimeterLayout, rowsLayout } from './fastener-layouts';
 import { fastener, type Fastener } from './procedure/schema';
+import { expectDomainError } from '../../tests/support/domain-error';
 
-function expectDomainError(fn: () => unknown, code: string) {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(DomainError);
-    expect((e as DomainError).code).toBe(code);
-    return;
-  }
-  throw new Error(`expected DomainError '${code}'`);
-}
 
 const wellFormed = (fs: Fastener[]) => {
   fs.forEach((f, i) => {

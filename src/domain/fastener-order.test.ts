@@ -1,6 +1,5 @@
 import { fc, test as fcTest } from '@fast-check/vitest';
 import { describe, expect, it } from 'vitest';
-import { DomainError } from './errors';
 import { circleLayout, gridLayout, perimeterLayout, rowsLayout } from './fastener-layouts';
 import {
   centreOutOrder,
@@ -12,18 +11,8 @@ import {
   validateManualOrder,
 } from './fastener-order';
 import type { Fastener, OrderMethod } from './procedure/schema';
+import { expectDomainError } from '../../tests/support/domain-error';
 
-function expectDomainError(fn: () => unknown, code: string, message?: RegExp) {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(DomainError);
-    expect((e as DomainError).code).toBe(code);
-    if (message) expect((e as DomainError).message).toMatch(message);
-    return;
-  }
-  throw new Error(`expected DomainError '${code}'`);
-}
 
 /** The order as labels, and the number each fastener gets, laid out row by row. */
 const labels = (fs: Fastener[], ids: string[]) => ids.map((id) => fs.find((f) => f.id === id)!.label);

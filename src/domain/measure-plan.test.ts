@@ -1,20 +1,9 @@
 import { fc, test as fcTest } from '@fast-check/vitest';
 import { describe, expect, it } from 'vitest';
-import { DomainError } from './errors';
 import { evaluateMeasure, readingSlots, type MeasureStep } from './measure-plan';
 import { measureStep, type MeasureMethod } from './procedure/schema';
+import { expectDomainError } from '../../tests/support/domain-error';
 
-function expectDomainError(fn: () => unknown, code: string, message?: RegExp) {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(DomainError);
-    expect((e as DomainError).code).toBe(code);
-    if (message) expect((e as DomainError).message).toMatch(message);
-    return;
-  }
-  throw new Error(`expected DomainError '${code}'`);
-}
 
 const step = (method: MeasureMethod, over: Partial<MeasureStep> = {}): MeasureStep =>
   measureStep.parse({

@@ -1,22 +1,11 @@
 import { fc, test as fcTest } from '@fast-check/vitest';
 import { describe, expect, it } from 'vitest';
-import { DomainError } from './errors';
 import { circleLayout, rowsLayout } from './fastener-layouts';
 import { centreOutOrder, crossOrder, looseningOrder } from './fastener-order';
 import { describePass, describePassTarget, expandPasses, passTarget, sequenceOrder, turnWords, type PassTarget, type SequenceInput } from './passes';
 import { fastenerSequenceStep, type FastenerMap, type Pass, type TorqueQuantity } from './procedure/schema';
+import { expectDomainError } from '../../tests/support/domain-error';
 
-function expectDomainError(fn: () => unknown, code: string, message?: RegExp) {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(DomainError);
-    expect((e as DomainError).code).toBe(code);
-    if (message) expect((e as DomainError).message).toMatch(message);
-    return;
-  }
-  throw new Error(`expected DomainError '${code}'`);
-}
 
 const map = (fasteners = rowsLayout(5, 2), extra: Partial<FastenerMap> = {}): FastenerMap => ({ fasteners, order: [], orderMethod: 'centre-out', ...extra });
 const nm = (value: number): TorqueQuantity => ({ value, unit: 'N·m' });

@@ -1,6 +1,5 @@
 import { fc, test as fcTest } from '@fast-check/vitest';
 import { describe, expect, it } from 'vitest';
-import { DomainError } from './errors';
 import type { Spec } from './procedure/schema';
 import {
   checkReading,
@@ -13,18 +12,8 @@ import {
   toleranceUsage,
   withinMax,
 } from './readings';
+import { expectDomainError } from '../../tests/support/domain-error';
 
-function expectDomainError(fn: () => unknown, code: string, message?: RegExp) {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(DomainError);
-    expect((e as DomainError).code).toBe(code);
-    if (message) expect((e as DomainError).message).toMatch(message);
-    return;
-  }
-  throw new Error(`expected DomainError '${code}'`);
-}
 
 describe('specFromTolerance', () => {
   describe.each<[number, number, number, Spec]>([

@@ -1,20 +1,9 @@
 import { fc, test as fcTest } from '@fast-check/vitest';
 import { describe, expect, it } from 'vitest';
-import { DomainError } from './errors';
 import type { Spec } from './procedure/schema';
 import { chooseShim, stockSizes, type ShimStock } from './shims';
+import { expectDomainError } from '../../tests/support/domain-error';
 
-function expectDomainError(fn: () => unknown, code: string, message?: RegExp) {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(DomainError);
-    expect((e as DomainError).code).toBe(code);
-    if (message) expect((e as DomainError).message).toMatch(message);
-    return;
-  }
-  throw new Error(`expected DomainError '${code}'`);
-}
 
 const intake: Spec = { nominal: 0.2, min: 0.15, max: 0.25, unit: 'mm' };
 const range: ShimStock = { kind: 'range', from: 2.5, to: 3.3, step: 0.05 };

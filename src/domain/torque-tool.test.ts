@@ -1,18 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { DomainError } from './errors';
 import { acceptReading, permissibleDeviation, testTorques, type ToolClass, type ToolType } from './torque-tool';
+import { expectDomainError } from '../../tests/support/domain-error';
 
-function expectDomainError(fn: () => unknown, code: string, message?: RegExp) {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(DomainError);
-    expect((e as DomainError).code).toBe(code);
-    if (message) expect((e as DomainError).message).toMatch(message);
-    return;
-  }
-  throw new Error(`expected DomainError '${code}'`);
-}
 
 // ISO 6789-1:2017, 5.1.5 maximum permissible deviation, by type, class and the tool's maximum
 // torque. Type II class A (±4 % above 10 N·m, ±6 % at or below) is as summarised in a tool

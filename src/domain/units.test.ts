@@ -1,7 +1,6 @@
 import { fc, test as fcTest } from '@fast-check/vitest';
 import { unit as mathUnit } from 'mathjs';
 import { describe, expect, it } from 'vitest';
-import { DomainError } from './errors';
 import {
   ALL_UNITS,
   UNIT_LABELS,
@@ -21,20 +20,10 @@ import {
   unitsOf,
   type AnyUnit,
 } from './units';
+import { expectDomainError } from '../../tests/support/domain-error';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.max(Math.abs(a), Math.abs(b), 1e-300);
 
-function expectDomainError(fn: () => unknown, code: string, message?: RegExp) {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(DomainError);
-    expect((e as DomainError).code).toBe(code);
-    if (message) expect((e as DomainError).message).toMatch(message);
-    return;
-  }
-  throw new Error(`expected DomainError '${code}'`);
-}
 
 describe('parseUnit: shop notation', () => {
   describe.each<[string, AnyUnit]>([

@@ -1,21 +1,10 @@
 import { fc, test as fcTest } from '@fast-check/vitest';
 import { describe, expect, it } from 'vitest';
-import { DomainError } from './errors';
 import type { LengthUnit, TorqueQuantity } from './procedure/schema';
 import type { Quantity } from './units';
 import { appliedTorque, wrenchSetting } from './wrench';
+import { expectDomainError } from '../../tests/support/domain-error';
 
-function expectDomainError(fn: () => unknown, code: string, message?: RegExp) {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(DomainError);
-    expect((e as DomainError).code).toBe(code);
-    if (message) expect((e as DomainError).message).toMatch(message);
-    return;
-  }
-  throw new Error(`expected DomainError '${code}'`);
-}
 
 const inch = (value: number): Quantity<LengthUnit> => ({ value, unit: 'in' });
 
