@@ -3,12 +3,13 @@
  * shop's procedures; leads and owners also get "New procedure" and "Import a file".
  */
 import { useEffect, useMemo, useState } from 'react';
-import { flexRender, getCoreRowModel, getPaginationRowModel, getSortedRowModel, useReactTable, type ColumnDef, type SortingState } from '@tanstack/react-table';
+import { getCoreRowModel, getPaginationRowModel, getSortedRowModel, useReactTable, type ColumnDef, type SortingState } from '@tanstack/react-table';
 import { matchesState, PROCEDURE_STATES, type ProcedureState } from '../domain/procedure/availability';
 import type { ProcedureSummaryDto } from '../server/services/procedure-dto';
 import { ImportProcedureForm } from './procedures/ImportProcedureForm';
 import { NewProcedureForm } from './procedures/NewProcedureForm';
 import { RevisionStatusMark, when } from './procedures/RevisionStatusMark';
+import { SortableTable } from './ui/SortableTable';
 
 export type ProcedureFilters = { search: string; status: '' | ProcedureState; engineFamily: string };
 type Props = { procedures: ProcedureSummaryDto[]; filters: ProcedureFilters; canAuthor: boolean };
@@ -63,7 +64,6 @@ export default function ProceduresTable({ procedures, filters: start, canAuthor 
     initialState: { pagination: { pageSize: 25 } },
   });
   const set = (k: keyof ProcedureFilters) => (e: React.ChangeEvent<HTMLInputElement | HTMLSelectElement>) => setFilters({ ...filters, [k]: e.target.value });
-  const { pageIndex } = table.getState().pagination;
   return (
     <div data-hydrated={hydrated ? 'true' : undefined}>
       <div className="flex flex-wrap items-end gap-3 mb-4">
@@ -101,41 +101,7 @@ export default function ProceduresTable({ procedures, filters: start, canAuthor 
       {rows.length === 0 ? (
         <p className="tt-card p-5" data-testid="procedures-empty">{procedures.length === 0 ? (canAuthor ? 'No procedures yet. Create one or import a procedure file.' : 'No released procedures yet.') : 'No procedures match these filters.'}</p>
       ) : (
-        <div className="tt-card overflow-x-auto">
-          <table className="w-full text-left" data-testid="procedures-table">
-            <thead className="bg-sunken">
-              {table.getHeaderGroups().map((g) => (
-                <tr key={g.id}>
-                  {g.headers.map((h) => {
-                    const sorted = h.column.getIsSorted();
-                    return (
-                      <th key={h.id} className="px-2 py-1" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none'}>
-                        <button type="button" className="min-h-12 font-semibold inline-flex items-center gap-1" onClick={h.column.getToggleSortingHandler()}>
-                          {flexRender(h.column.columnDef.header, h.getContext())}
-                          <span aria-hidden="true">{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
-                        </button>
-                      </th>
-                    );
-                  })}
-                </tr>
-              ))}
-            </thead>
-            <tbody>
-              {table.getRowModel().rows.map((r) => (
-                <tr key={r.id} className="border-t border-line align-top" data-procedure-key={r.original.key}>
-                  {r.getVisibleCells().map((c) => <td key={c.id} className="px-3 py-2">{flexRender(c.column.columnDef.cell, c.getContext())}</td>)}
-                </tr>
-              ))}
-            </tbody>
-          </table>
-          {table.getPageCount() > 1 && (
-            <div className="flex items-center justify-between gap-3 p-3 border-t border-line">
-              <button type="button" className="tt-btn tt-btn-quiet" disabled={!table.getCanPreviousPage()} onClick={() => table.previousPage()}>← Previous</button>
-              <span>Page {pageIndex + 1} of {table.getPageCount()} · {rows.length} procedures</span>
-              <button type="button" className="tt-btn tt-btn-quiet" disabled={!table.getCanNextPage()} onClick={() => table.nextPage()}>Next →</button>
-            </div>
-          )}
-        </div>
+        <SortableTable table={table} testId="procedures-table" rowAttrs={(r) => ({ 'data-procedure-key': r.original.key })} noun="procedures" total={rows.length} />
       )}
     </div>
   );

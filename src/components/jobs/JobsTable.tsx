@@ -1,7 +1,8 @@
 /** The jobs table: sort by any column, page through; filters live in the desk above it. */
 import { useState } from 'react';
-import { flexRender, getCoreRowModel, getPaginationRowModel, getSortedRowModel, useReactTable, type ColumnDef, type SortingState } from '@tanstack/react-table';
+import { getCoreRowModel, getPaginationRowModel, getSortedRowModel, useReactTable, type ColumnDef, type SortingState } from '@tanstack/react-table';
 import { JOB_STATUSES } from '../../domain/job-status';
+import { SortableTable } from '../ui/SortableTable';
 import { JobStatusMark } from './JobStatusMark';
 import type { JobSummaryDto } from './types';
 
@@ -29,42 +30,5 @@ export function JobsTable({ jobs }: { jobs: JobSummaryDto[] }) {
     initialState: { pagination: { pageSize: 20 } },
   });
   if (jobs.length === 0) return <p className="tt-card p-5" data-testid="jobs-empty">No jobs match these filters.</p>;
-  const { pageIndex } = table.getState().pagination;
-  return (
-    <div className="tt-card overflow-x-auto">
-      <table className="w-full text-left" data-testid="jobs-table">
-        <thead className="bg-sunken">
-          {table.getHeaderGroups().map((g) => (
-            <tr key={g.id}>
-              {g.headers.map((h) => {
-                const sorted = h.column.getIsSorted();
-                return (
-                  <th key={h.id} className="px-2 py-1" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none'}>
-                    <button type="button" className="min-h-12 font-semibold inline-flex items-center gap-1" onClick={h.column.getToggleSortingHandler()}>
-                      {flexRender(h.column.columnDef.header, h.getContext())}
-                      <span aria-hidden="true">{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
-                    </button>
-                  </th>
-                );
-              })}
-            </tr>
-          ))}
-        </thead>
-        <tbody>
-          {table.getRowModel().rows.map((r) => (
-            <tr key={r.id} className="border-t border-line align-top" data-job-code={r.original.code}>
-              {r.getVisibleCells().map((c) => <td key={c.id} className="px-3 py-2">{flexRender(c.column.columnDef.cell, c.getContext())}</td>)}
-            </tr>
-          ))}
-        </tbody>
-      </table>
-      {table.getPageCount() > 1 && (
-        <div className="flex items-center justify-between gap-3 p-3 border-t border-line">
-          <button type="button" className="tt-btn tt-btn-quiet" disabled={!table.getCanPreviousPage()} onClick={() => table.previousPage()}>← Previous</button>
-          <span>Page {pageIndex + 1} of {table.getPageCount()} · {jobs.length} jobs</span>
-          <button type="button" className="tt-btn tt-btn-quiet" disabled={!table.getCanNextPage()} onClick={() => table.nextPage()}>Next →</button>
-        </div>
-      )}
-    </div>
-  );
+  return <SortableTable table={table} testId="jobs-table" rowAttrs={(r) => ({ 'data-job-code': r.original.code })} noun="jobs" total={jobs.length} />;
 }
