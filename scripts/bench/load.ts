@@ -34,7 +34,8 @@ export async function loadPost(base: string, prefix: string, runIds: string[], e
         onResponse: (status: number, body: string, ctx: any) => {
           const key = status === 409 || status === 400 ? `${status} ${(/"code":"([^"]+)"/.exec(body) ?? [])[1] ?? ''}` : String(status);
           statuses[key] = (statuses[key] ?? 0) + 1;
-          if (status === 201) { ctx.i += 1; ctx.seq = JSON.parse(body).lastSeq; }
+          // Each connection owns its run, so a stored event moves its seq on by exactly one.
+          if (status === 201) { ctx.i += 1; ctx.seq += 1; }
           else if (status === 409) { try { const b = JSON.parse(body); if (typeof b.error?.lastSeq === 'number') ctx.seq = b.error.lastSeq; } catch { /* keep */ } }
         },
       },

@@ -68,13 +68,18 @@ const basePost = await loadPost(baseUrl, '', shop.basePostRuns, events500, tech,
 line('Step event post', oursPost, basePost, '≥ 50 %');
 await baseline.close();
 
-// Pages in headless Chromium.
-const runner = await measurePage(APP_URL, tech, `/runs/${shop.read500}`);
-row('Runner page JS (gzip), 500-step run', `${fmt(runner.jsGzipKB, 1)} KB in ${runner.jsFiles} files`, '—', '', '≤ 90 KB');
-row('Runner interactive, 500-step run', `${fmt(runner.interactiveMs)} ms`, '—', '', '');
-const editor = await measurePage(APP_URL, lead, `/revisions/${shop.p300DraftId}/edit`);
-row('Editor page JS (gzip), 300 steps', `${fmt(editor.jsGzipKB, 1)} KB in ${editor.jsFiles} files`, '—', '', '');
-row('Editor load until interactive, 300 steps', `${fmt(editor.interactiveMs)} ms`, '—', '', '');
+// Pages in headless Chromium; a failure becomes a row, so the table always prints.
+const pageRow = async (label: string, cookie: string, path: string, target: string) => {
+  try {
+    const f = await measurePage(APP_URL, cookie, path);
+    row(`${label} page JS (gzip)`, `${fmt(f.jsGzipKB, 1)} KB in ${f.jsFiles} files`, '—', '', target);
+    row(`${label} first byte / interactive`, `${fmt(f.firstByteMs)} / ${fmt(f.interactiveMs)} ms`, '—', '', '');
+  } catch (e) {
+    row(`${label} page`, `failed: ${String(e).split('\n')[0]!.slice(0, 70)}`, '—', '', target);
+  }
+};
+await pageRow('Runner, 500-step run,', tech, `/runs/${shop.read500}`, '≤ 90 KB');
+await pageRow('Editor, 300 steps,', lead, `/revisions/${shop.p300DraftId}/edit`, '');
 
 // Figures other parts provide, when present.
 for (const extra of ['./upload-figure', './report-figure']) {
