@@ -12,34 +12,29 @@ export async function loadGet(url: string, cookie: string, seconds: number): Pro
 }
 
 /**
- * Posts events along each run's happy path: connection i works run i, sending the next event
- * with the seq it last saw, as a technician's tablet would.
+ * Posts events along each run's happy path: worker i works run i alone, sending the next event
+ * with the seq it last saw, as a technician's tablet would (one request in flight per run).
  */
 export async function loadPost(base: string, prefix: string, runIds: string[], events: unknown[], cookie: string, origin: string, seconds: number): Promise<LoadResult> {
-  let nextRun = 0;
+  const latencies: number[] = [];
   const statuses: Record<string, number> = {};
-  const r = await autocannon({
-    url: base,
-    connections: runIds.length,
-    duration: seconds,
-    headers: { cookie, origin, 'content-type': 'application/json' },
-    requests: [
-      {
-        method: 'POST',
-        setupRequest: (req: any, ctx: any) => {
-          if (ctx.runId === undefined) { ctx.runId = runIds[nextRun++ % runIds.length]; ctx.i = 0; ctx.seq = 0; }
-          const event = events[ctx.i % events.length];
-          return { ...req, path: `${prefix}/runs/${ctx.runId}/events`, body: JSON.stringify({ event, idempotencyKey: randomUUID(), expectedSeq: ctx.seq }) };
-        },
-        onResponse: (status: number, body: string, ctx: any) => {
-          const key = status === 409 || status === 400 ? `${status} ${(/"code":"([^"]+)"/.exec(body) ?? [])[1] ?? ''}` : String(status);
-          statuses[key] = (statuses[key] ?? 0) + 1;
-          // Each connection owns its run, so a stored event moves its seq on by exactly one.
-          if (status === 201) { ctx.i += 1; ctx.seq += 1; }
-          else if (status === 409) { try { const b = JSON.parse(body); if (typeof b.error?.lastSeq === 'number') ctx.seq = b.error.lastSeq; } catch { /* keep */ } }
-        },
-      },
-    ],
-  } as autocannon.Options);
-  return { ...summarise(r), statuses };
+  const deadline = Date.now() + seconds * 1000;
+  await Promise.all(runIds.map(async (runId) => {
+    let seq = 0;
+    for (let i = 0; i < events.length && Date.now() < deadline; ) {
+      const t0 = performance.now();
+      const res = await fetch(`${base}${prefix}/runs/${runId}/events`, { method: 'POST', headers: { cookie, origin, 'content-type': 'application/json' }, body: JSON.stringify({ event: events[i], idempotencyKey: randomUUID(), expectedSeq: seq }) });
+      const text = await res.text();
+      latencies.push(performance.now() - t0);
+      const key = res.status === 201 ? '201' : `${res.status} ${(/"code":"([^"]+)"/.exec(text) ?? [])[1] ?? ''}`;
+      statuses[key] = (statuses[key] ?? 0) + 1;
+      if (res.status !== 201) break; // a refusal would repeat forever; stop this worker and report it
+      seq = (JSON.parse(text) as { lastSeq: number }).lastSeq;
+      i += 1;
+    }
+  }));
+  latencies.sort((a, b) => a - b);
+  const at = (q: number) => Math.round(latencies[Math.min(latencies.length - 1, Math.floor(q * latencies.length))] ?? 0);
+  const non2xx = Object.entries(statuses).filter(([k]) => !k.startsWith('2')).reduce((a, [, n]) => a + n, 0);
+  return { rps: latencies.length / seconds, p50: at(0.5), p99: at(0.99), non2xx, total: latencies.length, statuses };
 }
