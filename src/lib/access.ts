@@ -5,8 +5,8 @@
 import { createAccessControl } from 'better-auth/plugins/access';
 import { defaultStatements, ownerAc } from 'better-auth/plugins/organization/access';
 
-export const statements = {
-  ...defaultStatements,
+/** Torquetrail's own resources and actions, beside better-auth's organization ones. */
+const shopStatements = {
   procedure: ['create', 'update', 'release', 'retire'],
   job: ['create', 'update', 'assign'],
   run: ['start', 'record'],
@@ -16,19 +16,13 @@ export const statements = {
   settings: ['update'],
 } as const;
 
+export const statements = { ...defaultStatements, ...shopStatements } as const;
+
 export const ac = createAccessControl(statements);
 
 export const roles = {
-  owner: ac.newRole({
-    ...ownerAc.statements,
-    procedure: ['create', 'update', 'release', 'retire'],
-    job: ['create', 'update', 'assign'],
-    run: ['start', 'record'],
-    deviation: ['approve'],
-    signoff: ['sign', 'send-back'],
-    report: ['send', 'share'],
-    settings: ['update'],
-  }),
+  // The owner may do everything in the shop.
+  owner: ac.newRole({ ...ownerAc.statements, ...shopStatements }),
   lead: ac.newRole({
     invitation: ['create'],
     procedure: ['create', 'update', 'release', 'retire'],
