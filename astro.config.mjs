@@ -19,6 +19,14 @@ export default defineConfig({
   },
   vite: {
     plugins: [tailwindcss()],
+    build: {
+      rollupOptions: {
+        // Domain modules are pure by rule (no I/O, nothing done on import), so a module none of
+        // whose exports are used is dropped: the runner imports the run barrel without pulling
+        // the event schema — and with it the schema library — into the browser.
+        treeshake: { moduleSideEffects: (id, external) => external || !/[\\/]src[\\/]domain[\\/]/.test(id) },
+      },
+    },
     ssr: { external: ['pg-boss', 'pg', '@mikro-orm/core', '@mikro-orm/postgresql', '@mikro-orm/migrations', '@mikro-orm/seeder', 'nodemailer', 'qrcode', 'pdf-lib'] },
   },
 });

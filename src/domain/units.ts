@@ -9,16 +9,8 @@
  * rounds to 1.355818 and 1.129848 E−01.
  */
 import { DomainError } from './errors';
-import {
-  ANGLE_UNITS,
-  LENGTH_UNITS,
-  TORQUE_UNITS,
-  type AngleUnit,
-  type AnyUnit,
-  type LengthUnit,
-  type TorqueUnit,
-  type TorqueQuantity,
-} from './procedure/schema';
+import type { AngleUnit, AnyUnit, LengthUnit, TorqueUnit, TorqueQuantity } from './procedure/schema';
+import { ANGLE_UNITS, LENGTH_UNITS, TORQUE_UNITS } from './procedure/vocabulary';
 
 export type { AngleUnit, AnyUnit, LengthUnit, TorqueUnit, TorqueQuantity };
 export { ANGLE_UNITS, LENGTH_UNITS, TORQUE_UNITS };

@@ -6,7 +6,7 @@ import { useEffect, useState } from 'react';
 import type { Step } from '../../domain/procedure/schema';
 import { roleCan } from '../../lib/access';
 import { api } from '../../lib/api-client';
-import FindingForm from './FindingForm';
+import { LazyFindingForm } from './LazyFindingForm';
 import { LazyPhotoUploader } from './LazyPhotoUploader';
 import type { AttachmentDto } from './types';
 
@@ -40,7 +40,7 @@ export function StepExtras({ runId, jobId, step, role }: Props) {
         <button type="button" className="tt-btn tt-btn-quiet" onClick={() => setShowPhotos(true)}>Add photos</button>
       )}
       {finding ? (
-        <FindingForm jobId={jobId} runId={runId} stepId={step.id} onClose={() => setFinding(false)} />
+        <LazyFindingForm jobId={jobId} runId={runId} stepId={step.id} onClose={() => setFinding(false)} />
       ) : (
         <button type="button" className="tt-btn tt-btn-quiet" onClick={() => setFinding(true)} data-testid="record-finding">Record a finding</button>
       )}

@@ -1,12 +1,13 @@
 /** A caution step: read it, then acknowledge (A) — or continue when acknowledging is not required. */
 import type { StepOf } from '../../domain/procedure/schema';
+import type { RunEventDraft } from './use-run-sync';
 import { HazardCautions } from './HazardCautions';
 import type { StepPanelProps } from './step-panel';
 
 const SEVERITY: Record<StepOf<'caution'>['severity'], string> = { notice: 'Notice', caution: 'Caution', warning: 'Warning', danger: 'Danger' };
 
 export function CautionPanel({ step, sync }: StepPanelProps & { step: StepOf<'caution'> }) {
-  const event = step.mustAcknowledge ? { type: 'caution.acknowledge', stepId: step.id } : { type: 'step.complete', stepId: step.id };
+  const event: RunEventDraft = step.mustAcknowledge ? { type: 'caution.acknowledge', stepId: step.id } : { type: 'step.complete', stepId: step.id };
   const can = sync.can(event);
   return (
     <div className="space-y-4">

@@ -3,6 +3,7 @@
  * waiting panel — where a lead or owner (not the requester) sees "Approve deviation" and "Reject".
  */
 import { useState } from 'react';
+import type { RunEventDraft } from './use-run-sync';
 import type { Step } from '../../domain/procedure/schema';
 import { pendingDeviation, type RunSnapshot } from '../../domain/run';
 import type { StepPanelProps } from './step-panel';
@@ -41,7 +42,7 @@ export function DeviationPending({ step, snapshot, sync }: StepPanelProps & { st
   const [reason, setReason] = useState('');
   const [error, setError] = useState<string | null>(null);
   if (!pending) return null;
-  const approve = { type: 'deviation.approve', stepId: step.id, ...(note.trim() ? { note: note.trim() } : {}) };
+  const approve: RunEventDraft = { type: 'deviation.approve', stepId: step.id, ...(note.trim() ? { note: note.trim() } : {}) };
   const canApprove = sync.can(approve);
   const canReject = sync.can({ type: 'deviation.reject', stepId: step.id, reason: 'check' });
   const ownRequest = pending.requestedBy === sync.actor.userId;

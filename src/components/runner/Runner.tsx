@@ -4,7 +4,6 @@
  * continues at the exact point. Keys: Enter = main action, A = acknowledge, ? = legend.
  */
 import { useEffect, useRef, useState } from 'react';
-import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { nextExpected, runProgress, stepStates } from '../../domain/run';
 import { StatusRegion } from '../ui/StatusRegion';
 import { StepExtras } from '../parts/StepExtras';
@@ -18,12 +17,7 @@ import { useRunSync } from './use-run-sync';
 type Props = { run: RunDto; viewer: Viewer; units: PreferredUnits };
 
 export default function Runner(props: Props) {
-  const [client] = useState(() => new QueryClient({ defaultOptions: { queries: { retry: false } } }));
-  return (
-    <QueryClientProvider client={client}>
-      <RunnerView {...props} />
-    </QueryClientProvider>
-  );
+  return <RunnerView {...props} />;
 }
 
 const isField = (t: EventTarget | null) => t instanceof HTMLElement && (t.tagName === 'TEXTAREA' || t.tagName === 'SELECT' || t.tagName === 'BUTTON' || t.tagName === 'A' || (t.tagName === 'INPUT' && t.id !== 'reading-draft'));

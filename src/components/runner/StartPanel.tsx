@@ -1,9 +1,10 @@
 /** A step not yet started: its hazards to acknowledge, Start, and "Skip this step" (a deviation). */
 import type { Step } from '../../domain/procedure/schema';
+import type { RunEventDraft } from './use-run-sync';
 import type { StepPanelProps } from './step-panel';
 
 export function StartPanel({ step, sync, onSkip }: StepPanelProps & { step: Step; onSkip: () => void }) {
-  const event = { type: 'step.start', stepId: step.id, hazards: step.hazards };
+  const event: RunEventDraft = { type: 'step.start', stepId: step.id, hazards: step.hazards };
   const can = sync.can(event);
   const hasHazards = step.hazards.length > 0;
   return (

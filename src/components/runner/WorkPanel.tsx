@@ -2,7 +2,7 @@
 import { useState } from 'react';
 import type { Disposition, Step, TorqueUnit } from '../../domain/procedure/schema';
 import { TORQUE_UNITS } from '../../domain/units';
-import type { OutboxEvent } from '../../lib/outbox';
+import type { RunEventDraft } from './use-run-sync';
 import { inPreferred } from './targets';
 import type { StepPanelProps } from './step-panel';
 import { SkipButton } from './StartPanel';
@@ -23,11 +23,16 @@ export function WorkPanel({ step, sync, units, onSkip }: StepPanelProps & { step
   const [tags, setTags] = useState<Tag[]>(() => (step.kind === 'tag-part' ? step.positions.map((p) => ({ position: p, disposition: step.defaultDisposition, bin: step.bin })) : []));
 
   const appliedValue = applied.trim() === '' ? null : Number(applied.replace(',', '.'));
-  const event: OutboxEvent = { type: 'step.complete', stepId: step.id, ...(note.trim() ? { note: note.trim() } : {}) };
-  if (step.kind === 'torque' && appliedValue !== null) event['applied'] = { value: appliedValue, unit };
-  if (step.kind === 'tag-part') event['tags'] = tags.map((t) => ({ position: t.position, disposition: t.disposition, ...(t.bin.trim() ? { bin: t.bin.trim() } : {}) }));
+  const appliedOk = appliedValue !== null && Number.isFinite(appliedValue) && appliedValue > 0;
+  const event: RunEventDraft = {
+    type: 'step.complete',
+    stepId: step.id,
+    ...(note.trim() ? { note: note.trim() } : {}),
+    ...(step.kind === 'torque' && appliedOk ? { applied: { value: appliedValue, unit } } : {}),
+    ...(step.kind === 'tag-part' ? { tags: tags.map((t) => ({ position: t.position, disposition: t.disposition, ...(t.bin.trim() ? { bin: t.bin.trim() } : {}) })) } : {}),
+  };
   const can = sync.can(event);
-  const appliedProblem = step.kind === 'torque' && applied.trim() !== '' && !(appliedValue !== null && Number.isFinite(appliedValue) && appliedValue > 0) ? 'Enter the torque you applied, a number above zero' : null;
+  const appliedProblem = step.kind === 'torque' && applied.trim() !== '' && !appliedOk ? 'Enter the torque you applied, a number above zero' : null;
 
   return (
     <div className="space-y-4">

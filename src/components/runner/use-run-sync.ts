@@ -5,8 +5,10 @@
  * was recorded against, then sent in order; conflicts and refusals bring the log up to date.
  */
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import { useQuery } from '@tanstack/react-query';
-import { applyEvent, refusalFor, replay, runEvent, storeRun, type RunSnapshot } from '../../domain/run';
+// Straight from the modules, not the barrel: the runner has no use for the event schema (the
+// server parses every event it receives) and must not carry the schema library.
+import { applyRunEvent, refusalFor, replayEvents, type RunSnapshot } from '../../domain/run/run-apply';
+import type { RunEvent } from '../../domain/run/run-events';
 import { api, isApiError, type ApiError } from '../../lib/api-client';
 import { createOutbox, type Outbox, type OutboxEntry, type OutboxEvent, type SendOutcome } from '../../lib/outbox';
 import type { Status } from '../ui/StatusRegion';
@@ -14,9 +16,16 @@ import { describeEvent } from './describe-event';
 import { deviceName } from './device';
 import type { RecordedDto, RunDto, StoredEventDto, Viewer } from './types';
 import { useOnline } from './use-online';
+import { usePoll } from './use-poll';
 import { uuid } from './uuid';
 
 const POLL_MS = 3000;
+
+type DistributiveOmit<T, K extends PropertyKey> = T extends unknown ? Omit<T, K> : never;
+/** An event as the runner builds it: the actor is filled in here (and again by the server). */
+export type RunEventDraft = DistributiveOmit<RunEvent, 'actor'>;
+/** Server log entries were parsed when they were stored; queued ones were built by this code. */
+const asEvents = (payloads: readonly unknown[]) => payloads as readonly RunEvent[];
 const RETRY_MS = 5000;
 
 /** Server events merged by seq: each seq once, in order. */
@@ -54,7 +63,7 @@ export function useRunSync(initial: RunDto, viewer: Viewer) {
 
   const serverSnapshot = useMemo<{ snap: RunSnapshot | null; error: string | null }>(() => {
     try {
-      return { snap: replay(steps, events.map((e) => e.payload)), error: null };
+      return { snap: replayEvents(steps, asEvents(events.map((e) => e.payload))), error: null };
     } catch (e) {
       return { snap: null, error: e instanceof Error ? e.message : 'The run log could not be read' };
     }
@@ -67,7 +76,7 @@ export function useRunSync(initial: RunDto, viewer: Viewer) {
       const applied: OutboxEntry[] = [];
       const refused: OutboxEntry[] = [];
       for (const entry of queue) {
-        const r = applyEvent(steps, storeRun(snap), { ...entry.event, actor });
+        const r = applyRunEvent(steps, snap, { ...entry.event, actor } as unknown as RunEvent);
         if (r.ok) {
           snap = r.snapshot;
           applied.push(entry);
@@ -86,7 +95,7 @@ export function useRunSync(initial: RunDto, viewer: Viewer) {
   const rebase = useCallback(async (): Promise<OutboxEntry[]> => {
     let dropped: OutboxEntry[] = [];
     const kept = await outbox().rewrite(runId, (queue) => {
-      const base = replay(steps, eventsRef.current.map((e) => e.payload));
+      const base = replayEvents(steps, asEvents(eventsRef.current.map((e) => e.payload)));
       const { applied, refused } = withQueue(base, queue);
       dropped = refused;
       const from = lastSeq();
@@ -187,21 +196,15 @@ export function useRunSync(initial: RunDto, viewer: Viewer) {
    * it for sending; false (with a message in the status region) when the run refuses it.
    */
   const record = useCallback(
-    (event: OutboxEvent): boolean => {
+    (event: RunEventDraft): boolean => {
       const current = snapshotRef.current;
       if (!current) return false;
-      const parsed = runEvent.safeParse({ ...event, actor });
-      if (!parsed.success) {
-        const issue = parsed.error.issues[0];
-        setStatus({ kind: 'error', message: issue?.message ?? 'That entry is not valid' });
-        return false;
-      }
-      const refusal = refusalFor(current, parsed.data);
+      const refusal = refusalFor(current, { ...event, actor } as RunEvent);
       if (refusal) {
         setStatus({ kind: 'error', message: refusal.message });
         return false;
       }
-      const { actor: _a, ...body } = parsed.data;
+      const body: OutboxEvent = { ...event };
       const entry: OutboxEntry = { key: uuid(), runId, event: body, expectedSeq: lastSeq() + pendingRef.current.length, queuedAt: new Date().toISOString(), device: deviceName() };
       setQueue([...pendingRef.current, entry]);
       snapshotRef.current = withQueue(current, [entry]).snap;
@@ -240,14 +243,18 @@ export function useRunSync(initial: RunDto, viewer: Viewer) {
   }, [online, pending.length]);
 
   // Other people's events (a lead's approval, a reviewer's signature) arrive by polling.
-  const poll = useQuery({ queryKey: ['run-events', runId], queryFn: fetchNewer, refetchInterval: POLL_MS, refetchIntervalInBackground: false, retry: false });
+  // Offline, the poll rests: the outbox and the online event bring the log up to date on return.
+  const poll = usePoll(fetchNewer, POLL_MS, online);
 
   /** Whether the run accepts this event from this viewer now (the machine's own `can`). */
   const can = useCallback(
-    (event: OutboxEvent): boolean => {
+    (event: RunEventDraft): boolean => {
       if (!snapshot) return false;
-      const parsed = runEvent.safeParse({ ...event, actor });
-      return parsed.success && snapshot.can(parsed.data);
+      try {
+        return snapshot.can({ ...event, actor } as RunEvent);
+      } catch {
+        return false; // a guard that cannot even judge the event (a malformed value) refuses it
+      }
     },
     [snapshot, actor],
   );

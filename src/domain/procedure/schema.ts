@@ -3,10 +3,9 @@
  * the API, the import/export files in `procedures/` and the run machine all share.
  */
 import * as z from 'zod';
+import { ANGLE_UNITS, DISPOSITIONS, HAZARDS, LENGTH_UNITS, MESSAGES, ROLES, TORQUE_UNITS } from './vocabulary';
 
-export const TORQUE_UNITS = ['N·m', 'ft·lbf', 'in·lbf', 'kgf·m', 'kgf·cm'] as const;
-export const LENGTH_UNITS = ['mm', 'µm', 'in', 'thou'] as const;
-export const ANGLE_UNITS = ['deg', 'turn'] as const;
+export { ANGLE_UNITS, LENGTH_UNITS, TORQUE_UNITS } from './vocabulary';
 
 export const torqueUnit = z.enum(TORQUE_UNITS);
 export const lengthUnit = z.enum(LENGTH_UNITS);
@@ -17,8 +16,8 @@ export type LengthUnit = z.infer<typeof lengthUnit>;
 export type AngleUnit = z.infer<typeof angleUnit>;
 export type AnyUnit = z.infer<typeof anyUnit>;
 
-const finite = z.number().refine(Number.isFinite, 'Must be a finite number');
-const positive = finite.refine((n) => n > 0, 'Must be greater than zero');
+const finite = z.number().refine(Number.isFinite, MESSAGES.finite);
+const positive = finite.refine((n) => n > 0, MESSAGES.positive);
 
 export const torqueQuantity = z.object({ value: positive, unit: torqueUnit });
 export type TorqueQuantity = z.infer<typeof torqueQuantity>;
@@ -105,11 +104,11 @@ export const measureMethod = z.discriminatedUnion('kind', [
 export type MeasureMethod = z.infer<typeof measureMethod>;
 
 export const cautionSeverity = z.enum(['notice', 'caution', 'warning', 'danger']);
-export const hazard = z.enum(['lifting', 'pressurised-fuel', 'hot-fluid', 'spring-pressure', 'stored-energy', 'chemical', 'electrical']);
+export const hazard = z.enum(HAZARDS);
 export type Hazard = z.infer<typeof hazard>;
-export const disposition = z.enum(['reuse', 'replace', 'machine-shop', 'scrap']);
+export const disposition = z.enum(DISPOSITIONS);
 export type Disposition = z.infer<typeof disposition>;
-export const role = z.enum(['owner', 'lead', 'technician', 'reviewer']);
+export const role = z.enum(ROLES);
 export type Role = z.infer<typeof role>;
 
 const base = {

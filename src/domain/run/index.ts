@@ -2,7 +2,7 @@
 export { createRunMachine, type RunMachine } from './run.machine';
 export { runEvent, runActor, tagEntry, deviationKind, RUN_EVENT_TYPES } from './run-events';
 export type { RunEvent, RunEventInput, RunEventType, RunEventOf, RunActor, TagEntry, DeviationKind } from './run-events';
-export { applyEvent, replay, startRun, storeRun, restoreRun, refusalFor } from './run-replay';
+export { applyEvent, replay, startRun, storeRun, restoreRun, refusalFor, applyRunEvent, replayEvents } from './run-replay';
 export type { ApplyResult, RunSnapshot, StoredRun } from './run-replay';
 export { nextExpected, stepStates, runProgress, runPhase, stepRecord, fastenerProgress, measureDetail, pendingDeviation } from './run-view';
 export type { RunSnapshotLike, StepProgress } from './run-view';

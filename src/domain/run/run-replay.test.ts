@@ -4,7 +4,7 @@ import { createActor } from 'xstate';
 import { isDomainError } from '../errors';
 import { createRunMachine } from './run.machine';
 import type { RunEvent } from './run-events';
-import { applyEvent, refusalFor, replay, restoreRun, startRun, storeRun, type StoredRun } from './run-replay';
+import { applyEvent, applyRunEvent, refusalFor, replay, replayEvents, restoreRun, startRun, storeRun, type StoredRun } from './run-replay';
 import { explainRefusal } from './run-rules';
 import { runPhase, runProgress, stepStates } from './run-view';
 import { FULL_LOG, PROCEDURE, ev, lead, lead2, owner, reviewer, tech, tech2 } from './run.fixtures';
@@ -26,6 +26,27 @@ describe('a full run', () => {
     FULL_LOG.forEach((e) => actor.send(e));
     expect(actor.getSnapshot().value).toEqual(final.value);
     expect(actor.getSnapshot().context).toEqual(final.context);
+  });
+
+  it('reaches the same state through the unparsed core the browser uses (replayEvents, applyRunEvent)', () => {
+    expect(json(storeRun(replayEvents(PROCEDURE, FULL_LOG)))).toEqual(json(storeRun(final)));
+    let snap = startRun(PROCEDURE);
+    for (const e of FULL_LOG) {
+      const result = applyRunEvent(PROCEDURE, snap, e);
+      if (!result.ok) throw new Error(`${e.type} refused: ${result.message}`);
+      snap = result.snapshot;
+    }
+    expect(json(storeRun(snap))).toEqual(json(storeRun(final)));
+  });
+
+  it('refuses an out-of-order event in the unparsed core with the same words as the parsing one', () => {
+    const start = startRun(PROCEDURE);
+    const late = FULL_LOG[3]!;
+    const core = applyRunEvent(PROCEDURE, start, late);
+    const parsed = applyEvent(PROCEDURE, storeRun(start), json(late));
+    expect(core.ok).toBe(false);
+    expect(core).toEqual(parsed);
+    expect(() => replayEvents(PROCEDURE, [late])).toThrow(/Log entry 1/);
   });
 
   it('reaches the same state through applyEvent with JSON storage between events', () => {
