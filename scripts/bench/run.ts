@@ -12,6 +12,10 @@ import { measurePage } from './pages';
 import { freePortTs } from './ports';
 
 const seconds = Number(process.env.BENCH_SECONDS ?? 8);
+// `npm run bench -- reads pages` measures only those parts (sql, reads, posts, pages, extras).
+const SECTIONS = ['sql', 'reads', 'posts', 'pages', 'extras'] as const;
+const asked = process.argv.slice(2).filter((a) => (SECTIONS as readonly string[]).includes(a));
+const wants = (section: (typeof SECTIONS)[number]) => asked.length === 0 || asked.includes(section);
 const rows: Array<[string, string, string, string, string]> = [];
 const fmt = (n: number, d = 0) => n.toLocaleString('en-US', { maximumFractionDigits: d, minimumFractionDigits: d });
 const ratio = (a: number, b: number) => (b ? `${fmt((a / b) * 100)} %` : '—');
@@ -39,16 +43,18 @@ await post(shop.read5, happyPath(shop.p5.steps).slice(0, 60));
 console.log(`  seeded in ${fmt((Date.now() - t0) / 1000, 1)} s: 200 jobs, procedures of 500/300/5 steps with 64-fastener maps, ${shop.postRuns.length * 2 + 2} runs`);
 
 // SQL statements per request, small against large.
-const sql = async (path: string) => Number((await api(tech, 'GET', path)).headers.get('x-sql-statements') ?? NaN);
-const leadSql = async (path: string) => Number((await api(lead, 'GET', path)).headers.get('x-sql-statements') ?? NaN);
-const s5 = await sql(`/api/runs/${shop.read5}`), s500 = await sql(`/api/runs/${shop.read500}`);
-row('SQL per run-state read (5 → 500 steps)', `${s5} → ${s500}`, '6 (baseline)', s5 === s500 ? 'constant' : 'GROWS', 'constant');
-const j = await sql('/api/jobs');
-row('SQL per job list (200 jobs)', String(j), '—', '', 'constant');
-const pl5 = await leadSql(`/api/procedures/${shop.p5.procedureId}`), pl500 = await leadSql(`/api/procedures/${shop.p500.procedureId}`);
-row('SQL per procedure load (5 → 500 steps)', `${pl5} → ${pl500}`, '—', pl5 === pl500 ? 'constant' : 'GROWS', 'constant');
-const r5 = await leadSql(`/api/revisions/${shop.p5.revisionId}`), r500 = await leadSql(`/api/revisions/${shop.p500.revisionId}`);
-row('SQL per revision load (5 → 500 steps)', `${r5} → ${r500}`, '—', r5 === r500 ? 'constant' : 'GROWS', 'constant');
+if (wants('sql')) {
+  const sql = async (path: string) => Number((await api(tech, 'GET', path)).headers.get('x-sql-statements') ?? NaN);
+  const leadSql = async (path: string) => Number((await api(lead, 'GET', path)).headers.get('x-sql-statements') ?? NaN);
+  const s5 = await sql(`/api/runs/${shop.read5}`), s500 = await sql(`/api/runs/${shop.read500}`);
+  row('SQL per run-state read (5 → 500 steps)', `${s5} → ${s500}`, '6 (baseline)', s5 === s500 ? 'constant' : 'GROWS', 'constant');
+  const j = await sql('/api/jobs');
+  row('SQL per job list (200 jobs)', String(j), '—', '', 'constant');
+  const pl5 = await leadSql(`/api/procedures/${shop.p5.procedureId}`), pl500 = await leadSql(`/api/procedures/${shop.p500.procedureId}`);
+  row('SQL per procedure load (5 → 500 steps)', `${pl5} → ${pl500}`, '—', pl5 === pl500 ? 'constant' : 'GROWS', 'constant');
+  const r5 = await leadSql(`/api/revisions/${shop.p5.revisionId}`), r500 = await leadSql(`/api/revisions/${shop.p500.revisionId}`);
+  row('SQL per revision load (5 → 500 steps)', `${r5} → ${r500}`, '—', r5 === r500 ? 'constant' : 'GROWS', 'constant');
+}
 
 // HTTP load: ours against the bare node:http + pg server doing the same SQL.
 const basePort = await freePortTs();
@@ -60,12 +66,16 @@ const line = (what: string, a: LoadResult, b: LoadResult, target: string) => {
   row(`${what} p50 / p99 ms`, `${a.p50} / ${a.p99}`, `${b.p50} / ${b.p99}`, '', '');
   if (a.non2xx || b.non2xx) row(`${what} non-2xx responses`, `${a.non2xx} ${a.statuses ? JSON.stringify(a.statuses) : ''}`, String(b.non2xx), '', '0');
 };
-const oursGet = await loadGet(`${APP_URL}/api/runs/${shop.read500}`, tech, seconds);
-const baseGet = await loadGet(`${baseUrl}/runs/${shop.read500}`, tech, seconds);
-line('Run-state read (500 steps, 260 events)', oursGet, baseGet, '≥ 70 %');
-const oursPost = await loadPost(APP_URL, '/api', shop.postRuns, events500, tech, APP_URL, seconds);
-const basePost = await loadPost(baseUrl, '', shop.basePostRuns, events500, tech, baseUrl, seconds);
-line('Step event post', oursPost, basePost, '≥ 50 %');
+if (wants('reads')) {
+  const oursGet = await loadGet(`${APP_URL}/api/runs/${shop.read500}`, tech, seconds);
+  const baseGet = await loadGet(`${baseUrl}/runs/${shop.read500}`, tech, seconds);
+  line('Run-state read (500 steps, 260 events)', oursGet, baseGet, '≥ 70 %');
+}
+if (wants('posts')) {
+  const oursPost = await loadPost(APP_URL, '/api', shop.postRuns, events500, tech, APP_URL, seconds);
+  const basePost = await loadPost(baseUrl, '', shop.basePostRuns, events500, tech, baseUrl, seconds);
+  line('Step event post', oursPost, basePost, '≥ 50 %');
+}
 await baseline.close();
 
 // Pages in headless Chromium; a failure becomes a row, so the table always prints.
@@ -78,11 +88,13 @@ const pageRow = async (label: string, cookie: string, path: string, target: stri
     row(`${label} page`, `failed: ${String(e).split('\n')[0]!.slice(0, 70)}`, '—', '', target);
   }
 };
-await pageRow('Runner, 500-step run,', tech, `/runs/${shop.read500}`, '≤ 90 KB');
-await pageRow('Editor, 300 steps,', lead, `/revisions/${shop.p300DraftId}/edit`, '');
+if (wants('pages')) {
+  await pageRow('Runner, 500-step run,', tech, `/runs/${shop.read500}`, '≤ 90 KB');
+  await pageRow('Editor, 300 steps,', lead, `/revisions/${shop.p300DraftId}/edit`, '');
+}
 
 // Figures other parts provide, when present.
-for (const extra of ['./upload-figure', './report-figure']) {
+for (const extra of wants('extras') ? ['./upload-figure', './report-figure'] : []) {
   try {
     const mod = (await import(extra)) as { figure: (ctx: { lead: string; tech: string; shop: typeof shop }) => Promise<Array<[string, string, string, string, string]>> };
     rows.push(...(await mod.figure({ lead, tech, shop })));

@@ -142,6 +142,14 @@ describe('recording events', () => {
     expect(r.body.event).toMatchObject({ seq: 1, type: 'step.start', device: 'bench tablet 2', actor: { id: a.members.technician.userId, name: a.members.technician.name, role: 'technician' } });
     expect(r.body.event.payload.actor).toEqual({ userId: a.members.technician.userId, role: 'technician' });
     expect(r.body).toMatchObject({ lastSeq: 1, next: { description: 'Next: complete the step' }, progress: { done: 0, total: 3 } });
+    // The read paths (run view, poll, history) give the very entry the post answered with.
+    const view = await callRoute(runRoute.GET, { params: { id: runId }, as: as(a, 'technician') });
+    const poll = await callRoute(eventsRoute.GET, { path: '/api/runs/x/events?after=0', params: { id: runId }, as: as(a, 'technician') });
+    const history = await callRoute(historyRoute.GET, { params: { id: runId }, as: as(a, 'technician') });
+    expect(view.body.events).toEqual([r.body.event]);
+    expect(poll.body.events).toEqual([r.body.event]);
+    expect(history.body.events).toEqual([r.body.event]);
+    expect(r.body.event.recordedAt).toMatch(/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d\.\d{3}Z$/);
   });
 
   it('answers a bad event with 400 and a stale expectedSeq with 409 conflict and the missing events', async () => {

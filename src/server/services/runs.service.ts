@@ -63,7 +63,10 @@ async function loadRun(em: EntityManager, shopId: string, runId: string, lock = 
   return run;
 }
 
-async function toEventDtos(em: EntityManager, rows: RunEventEntity[]): Promise<StoredEventDto[]> {
+/** What a log entry needs to become a DTO: an entity row or a plain row from `logOf`. */
+type LogRow = Pick<RunEventEntity, 'seq' | 'type' | 'payload' | 'actorId' | 'actorRole' | 'device' | 'recordedAt' | 'clientAt'>;
+
+async function toEventDtos(em: EntityManager, rows: readonly LogRow[]): Promise<StoredEventDto[]> {
   const names = await userNames(em, rows.map((r) => r.actorId));
   return rows.map((r) => ({
     seq: r.seq, type: r.type, payload: r.payload,
@@ -72,7 +75,22 @@ async function toEventDtos(em: EntityManager, rows: RunEventEntity[]): Promise<S
   }));
 }
 
-const logOf = (em: EntityManager, run: RunEntity, afterSeq = 0) => em.find(RunEventRow, { run: run.id, seq: { $gt: afterSeq } }, { orderBy: { seq: 'asc' } });
+type RawLogRow = { seq: number; type: string; payload: RunEvent; actor_id: string; actor_role: string; device: string | null; recorded_ms: number | string; client_ms: number | string | null };
+// Times as whole epoch milliseconds (what a Date holds), so no timestamp text is parsed here.
+const epochMs = (column: string) => `floor(extract(epoch from ${column}) * 1000)::float8`;
+/**
+ * A run's log after a seq, read as plain rows: every run view and every runner's poll reads it,
+ * and the entries are never changed, so they skip entity hydration and the identity map.
+ */
+async function logOf(em: EntityManager, run: RunEntity, afterSeq = 0): Promise<LogRow[]> {
+  const rows = await em.getConnection().execute<RawLogRow[]>(
+    `select seq, type, payload, actor_id, actor_role, device, ${epochMs('recorded_at')} as recorded_ms, ${epochMs('client_at')} as client_ms from run_event where run_id = ? and seq > ? order by seq`,
+    [run.id, afterSeq],
+    'all',
+    em.getTransactionContext(), // inside a transaction, read on its connection
+  );
+  return rows.map((r) => ({ seq: r.seq, type: r.type, payload: r.payload, actorId: r.actor_id, actorRole: r.actor_role, device: r.device, recordedAt: new Date(Number(r.recorded_ms)), clientAt: r.client_ms === null ? null : new Date(Number(r.client_ms)) }));
+}
 
 async function runInfo(em: EntityManager, run: RunEntity): Promise<RunInfoDto> {
   const job = await em.findOneOrFail(Job, { id: run.job.id, shopId: run.shopId });
@@ -136,7 +154,7 @@ export async function runHistory(em: EntityManager, shopId: string, runId: strin
 
 type Outcome =
   | { kind: 'stored'; row: RunEventEntity; snapshot: RunSnapshot; lastSeq: number; created: boolean }
-  | { kind: 'stale'; lastSeq: number; rows: RunEventEntity[] };
+  | { kind: 'stale'; lastSeq: number; rows: LogRow[] };
 
 /** Events only the sign-off service may post: it re-checks the password and stores the Signature first. */
 const SIGNATURE_EVENTS = new Set(['hold.sign']);
