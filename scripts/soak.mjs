@@ -13,7 +13,9 @@ import { freePort, stopChild } from './lib/sh.mjs';
 import { say, fail } from './lib/log.mjs';
 
 const KILLS = Number(process.env.SOAK_KILLS ?? 8);
-const GAP_MS = Number(process.env.SOAK_GAP_MS ?? 5000);
+// Kills are paced by progress, not by the clock: each waits for this many newly acknowledged
+// events, so a slow machine gets the same amount of load between crashes as a fast one.
+const ACKS_BETWEEN = Number(process.env.SOAK_ACKS_BETWEEN ?? 25);
 const dataDir = path.join(root, '.data', `soak-${process.pid}`);
 let stack;
 let app;
@@ -22,16 +24,29 @@ let code = 1;
 
 const cleanup = async () => {
   if (driver && driver.exitCode === null) driver.kill('SIGTERM');
-  if (app) await stopChild(app);
+  if (app) { app.killedBySoak = true; await stopChild(app); }
   if (stack) await stack.stop();
   fs.rmSync(dataDir, { recursive: true, force: true });
 };
 process.on('SIGINT', async () => { await cleanup(); process.exit(130); });
 process.on('SIGTERM', async () => { await cleanup(); process.exit(143); });
-const sleep = (ms) => new Promise((r) => setTimeout(r, ms));
+
+/** App servers that ended without being killed: a crash the soak itself did not cause. */
+let unexpectedExits = 0;
+const watch = (child) => {
+  child.once('exit', (c, signal) => {
+    if (!child.killedBySoak) {
+      unexpectedExits++;
+      say(`the app server exited on its own (code ${c}, signal ${signal})`);
+    }
+  });
+  return child;
+};
 
 /** SIGKILL to the app's process group (only the server this script started), then wait for it to go. */
 async function killApp() {
+  if (app.exitCode !== null || app.signalCode !== null) return; // already gone: counted by watch()
+  app.killedBySoak = true;
   const gone = new Promise((r) => app.once('exit', r));
   try { process.kill(-app.pid, 'SIGKILL'); } catch { /* already gone */ }
   await gone;
@@ -46,7 +61,7 @@ try {
   const outDir = path.join(dataDir, 'dist');
   buildIfStale(outDir);
   const appEnv = { ...stack.env, SIGNIN_RATE_LIMIT: '100000' };
-  const start = () => startApp(appEnv, { host: '127.0.0.1', port: appPort, silent: !process.env.TT_APP_LOG, outDir });
+  const start = async () => watch(await startApp(appEnv, { host: '127.0.0.1', port: appPort, silent: !process.env.TT_APP_LOG, outDir }));
   say(`Starting the built app on ${appUrl}`);
   app = await start();
 
@@ -55,8 +70,21 @@ try {
   });
   const messages = [];
   let wake = () => {};
-  driver.on('message', (m) => { messages.push(m); wake(); });
+  let acked = 0;
+  driver.on('message', (m) => {
+    if (m?.type === 'acked') acked = m.total;
+    else messages.push(m);
+    wake();
+  });
   driver.on('exit', () => wake());
+  /** Waits until `n` more events are acknowledged (or the driver has finished its runs). */
+  const waitForAcks = async (n) => {
+    const target = acked + n;
+    while (acked < target && !messages.some((m) => m.type === 'done')) {
+      if (driver.exitCode !== null) throw new Error('the soak driver exited early');
+      await new Promise((r) => { wake = r; });
+    }
+  };
   const waitFor = async (type) => {
     for (;;) {
       const m = messages.find((x) => x.type === type);
@@ -71,7 +99,7 @@ try {
   let pgRestarts = 0;
   const t0 = Date.now();
   for (let i = 1; i <= KILLS; i++) {
-    await sleep(GAP_MS);
+    await waitForAcks(ACKS_BETWEEN);
     if (messages.some((m) => m.type === 'done')) break;
     await killApp();
     say(`kill -9 #${i} of the app server (${((Date.now() - t0) / 1000).toFixed(1)} s)`);
@@ -83,13 +111,13 @@ try {
     }
     app = await start();
     if (i === Math.ceil(KILLS / 2) + 1) {
-      await sleep(GAP_MS / 2);
+      await waitForAcks(Math.ceil(ACKS_BETWEEN / 2));
       stack.cluster.restart();
       pgRestarts++;
       say('PostgreSQL restarted under load');
     }
   }
-  await sleep(GAP_MS);
+  await waitForAcks(ACKS_BETWEEN);
   driver.send({ type: 'stop' });
   const done = await waitFor('done');
   const s = done.summary ?? {};
@@ -97,12 +125,14 @@ try {
   console.log(`  app server kill -9 + restart: ${KILLS}, PostgreSQL restarts: ${pgRestarts}`);
   console.log(`  technicians ${s.technicians}, event keys tried ${s.keys}, acknowledged ${s.acknowledged} (${s.acknowledgedAfterRetry} answered 200 as a stored retry), in the log ${s.logged}`);
   console.log(`  POST attempts ${s.attempts}: connection errors ${s.connectionErrors}, 5xx ${s.serverErrors}, acknowledged on a retry ${s.retriedAcks}, refusals ${s.refusals}; load ran ${s.loadSeconds?.toFixed?.(1)} s`);
-  if (done.ok) {
+  console.log(`  app servers that exited on their own: ${unexpectedExits}`);
+  if (done.ok && unexpectedExits === 0) {
     console.log('  every acknowledged event is in the log exactly once, seqs are contiguous, every run rebuilds to what GET /api/runs/:id answers');
     code = 0;
   } else {
-    console.log(`  ${done.problemCount} problem(s):`);
+    console.log(`  ${done.problemCount + unexpectedExits} problem(s):`);
     for (const p of done.problems) console.log(`   - ${p}`);
+    if (unexpectedExits) console.log(`   - the app server crashed ${unexpectedExits} time(s) without being killed (run with TT_APP_LOG=1 to see why)`);
   }
 } catch (e) {
   fail(e instanceof Error ? e.stack ?? e.message : String(e));

@@ -85,6 +85,7 @@ async function technician(cookie: string, runId: string, events: Array<Record<st
       const r = await call(cookie, 'POST', `/api/runs/${runId}/events`, { event, idempotencyKey: key, expectedSeq: seq, device: 'soak tablet' });
       if (r.status === 201 || r.status === 200) {
         acks.push({ runId, key, seq: r.body.event.seq, status: r.status });
+        send({ type: 'acked', total: acks.length }); // the soak paces its kills on these
         if (attempts > 1) counts.retriedAcks++;
         if (r.body.event.seq !== seq + 1) problems.push(`run ${runId}: key ${key} acknowledged as seq ${r.body.event.seq}, expected ${seq + 1}`);
         seq = r.body.lastSeq;
