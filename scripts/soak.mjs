@@ -33,12 +33,15 @@ process.on('SIGTERM', async () => { await cleanup(); process.exit(143); });
 
 /** App servers that ended without being killed: a crash the soak itself did not cause. */
 let unexpectedExits = 0;
+/** Resolves the current wait for a driver message or a server exit. */
+let wake = () => {};
 const watch = (child) => {
   child.once('exit', (c, signal) => {
     if (!child.killedBySoak) {
       unexpectedExits++;
       say(`the app server exited on its own (code ${c}, signal ${signal})`);
     }
+    wake(); // a wait for progress ends: the loop restarts the server
   });
   return child;
 };
@@ -69,7 +72,6 @@ try {
     cwd: root, stdio: ['ignore', 'inherit', 'inherit', 'ipc'], env: { ...process.env, ...stack.env, APP_URL: appUrl },
   });
   const messages = [];
-  let wake = () => {};
   let acked = 0;
   driver.on('message', (m) => {
     if (m?.type === 'acked') acked = m.total;
@@ -80,7 +82,7 @@ try {
   /** Waits until `n` more events are acknowledged (or the driver has finished its runs). */
   const waitForAcks = async (n) => {
     const target = acked + n;
-    while (acked < target && !messages.some((m) => m.type === 'done')) {
+    while (acked < target && !messages.some((m) => m.type === 'done') && app.exitCode === null && app.signalCode === null) {
       if (driver.exitCode !== null) throw new Error('the soak driver exited early');
       await new Promise((r) => { wake = r; });
     }
