@@ -54,6 +54,17 @@ if (wants('sql')) {
   row('SQL per procedure load (5 → 500 steps)', `${pl5} → ${pl500}`, '—', pl5 === pl500 ? 'constant' : 'GROWS', 'constant');
   const r5 = await leadSql(`/api/revisions/${shop.p5.revisionId}`), r500 = await leadSql(`/api/revisions/${shop.p500.revisionId}`);
   row('SQL per revision load (5 → 500 steps)', `${r5} → ${r500}`, '—', r5 === r500 ? 'constant' : 'GROWS', 'constant');
+  // A post on a run of its own (the load's runs must start at seq 0): the second event's count.
+  const sqlRun = (await ok(lead, 'POST', `/api/jobs/${shop.jobIds.at(-1)}/runs`, { revisionId: shop.p500.revisionId })).run.id as string;
+  const postSql = async (seq: number) => {
+    const r = await api(tech, 'POST', `/api/runs/${sqlRun}/events`, { event: events500[seq], idempotencyKey: crypto.randomUUID(), expectedSeq: seq });
+    if (r.status !== 201) throw new Error(`post for the SQL count answered ${r.status}`);
+    return Number(r.headers.get('x-sql-statements') ?? NaN);
+  };
+  await postSql(0);
+  const p2 = await postSql(1);
+  // The baseline's post: session and membership, then begin, the run locked, its revision, its log, insert, update, commit.
+  row('SQL per step-event post', String(p2), '9 (baseline)', '', '');
 }
 
 // HTTP load: ours against the bare node:http + pg server doing the same SQL.

@@ -10,6 +10,8 @@ import type { Role } from '../../domain/procedure/schema';
 import { roleCan, type ShopRole } from '../../lib/access';
 import { config } from '../config';
 import { Job, Run, RunEvent as RunEventRow, Signature } from '../entities';
+import type { JobEntity } from '../entities/job.entity';
+import type { RunEntity } from '../entities/run.entity';
 import type { Member } from '../guards';
 import { queueNotices } from './mail-queue.service';
 import { pinnedRevision } from './run-revision';
@@ -98,11 +100,12 @@ async function emails(em: EntityManager, ids: string[]): Promise<string[]> {
  * enters the queue, the shop's leads when a deviation waits. Called by the runs service after
  * it stores an event; never throws (a notice must not undo the work).
  */
-export async function noticesAfterEvent(em: EntityManager, shopId: string, runId: string, event: RunEvent, snapshot: RunSnapshot): Promise<void> {
+export async function noticesAfterEvent(em: EntityManager, shopId: string, runId: string, event: RunEvent, snapshot: RunSnapshot, loaded?: { run: RunEntity; job: JobEntity }): Promise<void> {
   try {
-    const run = await em.findOne(Run, { id: runId, shopId });
+    // The poster has just had the run and its job under lock; only other callers load them.
+    const run = loaded?.run ?? (await em.findOne(Run, { id: runId, shopId }));
     if (!run) return;
-    const job = await em.findOneOrFail(Job, { id: run.job.id, shopId });
+    const job = loaded?.job ?? (await em.findOneOrFail(Job, { id: run.job.id, shopId }));
     const s = stateOf(snapshot);
     const link = `${config().PUBLIC_URL}/review`;
     const base = { shopId, jobId: job.id, runId, createdBy: event.actor.userId };

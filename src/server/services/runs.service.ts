@@ -13,6 +13,7 @@ import { applyEvent, nextExpected, pendingDeviation, replay, runProgress, startR
 import { roleCan } from '../../lib/access';
 import { Job, Run, RunEvent as RunEventRow } from '../entities';
 import type { RunEntity, RunStatus } from '../entities/run.entity';
+import type { JobEntity } from '../entities/job.entity';
 import type { RunEventEntity } from '../entities/run-event.entity';
 import type { Member } from '../guards';
 import { AppError, notFound } from '../http';
@@ -66,8 +67,9 @@ async function loadRun(em: EntityManager, shopId: string, runId: string, lock = 
 /** What a log entry needs to become a DTO: an entity row or a plain row from `logOf`. */
 type LogRow = Pick<RunEventEntity, 'seq' | 'type' | 'payload' | 'actorId' | 'actorRole' | 'device' | 'recordedAt' | 'clientAt'>;
 
-async function toEventDtos(em: EntityManager, rows: readonly LogRow[]): Promise<StoredEventDto[]> {
-  const names = await userNames(em, rows.map((r) => r.actorId));
+/** `known` names (the posting member's own) spare the lookup when they cover every actor. */
+async function toEventDtos(em: EntityManager, rows: readonly LogRow[], known?: ReadonlyMap<string, string>): Promise<StoredEventDto[]> {
+  const names = known && rows.every((r) => known.has(r.actorId)) ? known : await userNames(em, rows.map((r) => r.actorId));
   return rows.map((r) => ({
     seq: r.seq, type: r.type, payload: r.payload,
     actor: { id: r.actorId, name: names.get(r.actorId) ?? 'Former member', role: r.actorRole },
@@ -153,7 +155,7 @@ export async function runHistory(em: EntityManager, shopId: string, runId: strin
 }
 
 type Outcome =
-  | { kind: 'stored'; row: RunEventEntity; snapshot: RunSnapshot; lastSeq: number; created: boolean }
+  | { kind: 'stored'; row: RunEventEntity; snapshot: RunSnapshot; lastSeq: number; created: boolean; run?: RunEntity; job?: JobEntity }
   | { kind: 'stale'; lastSeq: number; rows: LogRow[] };
 
 /** Events only the sign-off service may post: it re-checks the password and stores the Signature first. */
@@ -210,14 +212,14 @@ export async function recordRunEvent(em: EntityManager, member: Member, runId: s
     if (result.event.type === 'run.reopen') job.status = statusOnRunReopen(job.status);
     await tem.flush();
     rememberRunState(run, run.lastSeq, result.snapshot);
-    return { kind: 'stored', row, snapshot: result.snapshot, lastSeq: run.lastSeq, created: true };
+    return { kind: 'stored', row, snapshot: result.snapshot, lastSeq: run.lastSeq, created: true, run, job };
   });
 
   if (outcome.kind === 'stale') {
     throw new AppError('conflict', 'Someone else recorded on this run first; here is the fresh state.', { lastSeq: outcome.lastSeq, events: await toEventDtos(em, outcome.rows) });
   }
   // Review-queue notices (hold point reached, run finished, deviation asked); never throws.
-  if (outcome.created) await noticesAfterEvent(em, member.shopId, runId, outcome.row.payload, outcome.snapshot);
-  const [dto] = await toEventDtos(em, [outcome.row]);
+  if (outcome.created) await noticesAfterEvent(em, member.shopId, runId, outcome.row.payload, outcome.snapshot, outcome.run && outcome.job ? { run: outcome.run, job: outcome.job } : undefined);
+  const [dto] = await toEventDtos(em, [outcome.row], new Map([[member.userId, member.name]]));
   return { status: outcome.created ? 201 : 200, body: { event: dto!, lastSeq: outcome.lastSeq, next: nextExpected(outcome.snapshot), progress: runProgress(outcome.snapshot) } };
 }
