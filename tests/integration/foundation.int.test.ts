@@ -64,6 +64,21 @@ describe('shop scoping and roles', () => {
       expect(r.body.error.code).toBe('forbidden');
     }
   });
+  it('reading settings writes nothing; two first changes at once both land, on one row', async () => {
+    const shop = await createShop('Shop with default settings');
+    const count = async () => Number(((await orm.em.getConnection().execute('select count(*)::int as n from shop_settings where shop_id = ?', [shop.id])) as Array<{ n: number }>)[0]!.n);
+    const read = await callRoute(settingsRoute.GET, { as: { shop, member: shop.members.technician } });
+    expect(read.body).toMatchObject({ preferredTorqueUnit: 'N·m', preferredLengthUnit: 'mm', allowSelfSignoff: false });
+    expect(await count()).toBe(0);
+    const [x, y] = await Promise.all([
+      callRoute(settingsRoute.PATCH, { method: 'PATCH', body: { preferredLengthUnit: 'in' }, as: { shop, member: shop.members.owner } }),
+      callRoute(settingsRoute.PATCH, { method: 'PATCH', body: { preferredTorqueUnit: 'ft·lbf' }, as: { shop, member: shop.members.owner } }),
+    ]);
+    expect([x.status, y.status]).toEqual([200, 200]);
+    expect(await count()).toBe(1);
+    expect((await callRoute(settingsRoute.GET, { as: { shop, member: shop.members.technician } })).body).toMatchObject({ preferredTorqueUnit: 'ft·lbf', preferredLengthUnit: 'in' });
+  });
+
   it("a member of shop B reads B's settings, never A's", async () => {
     const r = await callRoute(settingsRoute.GET, { as: { shop: b, member: b.members.technician } });
     expect(r.status).toBe(200);

@@ -4,6 +4,7 @@
  * through nodemailer and retries with backoff. The share link travels in the job's data only,
  * so the stored message never holds a usable token.
  */
+import * as z from 'zod';
 import type { EntityManager } from '@mikro-orm/postgresql';
 import type PgBoss from 'pg-boss';
 import type { Transporter } from 'nodemailer';
@@ -106,7 +107,7 @@ export async function queueNotices(em: EntityManager, base: Omit<QueueMailInput,
 /** The messages sent for one job, newest first; starts the queue so waiting messages resume after a restart. */
 export async function listJobMessages(em: EntityManager, shopId: string, jobId: string): Promise<OutgoingMessageDto[]> {
   void queue().catch((e) => console.error('[queue] not started', e));
-  if ((await em.count(Job, { id: jobId, shopId })) === 0) throw notFound('That job');
+  if (!z.uuid().safeParse(jobId).success || (await em.count(Job, { id: jobId, shopId })) === 0) throw notFound('That job');
   const rows = await em.find(OutgoingMessage, { shopId, jobId }, { orderBy: { createdAt: 'desc' }, limit: 200 });
   return rows.map(toDto);
 }

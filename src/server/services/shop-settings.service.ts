@@ -18,19 +18,18 @@ const toDto = (s: { shopId: string; preferredTorqueUnit: string; preferredLength
   allowSelfSignoff: s.allowSelfSignoff,
 });
 
-/** The settings of one shop, created with defaults on first read. */
+const DEFAULTS = { preferredTorqueUnit: 'N·m', preferredLengthUnit: 'mm', allowSelfSignoff: false } as const;
+
+/** The settings of one shop; the defaults until the owner first changes one (a read writes nothing). */
 export async function getShopSettings(em: EntityManager, shopId: string): Promise<ShopSettingsDto> {
-  let s = await em.findOne(ShopSettings, { shopId });
-  if (!s) {
-    s = em.create(ShopSettings, { shopId, preferredTorqueUnit: 'N·m', preferredLengthUnit: 'mm', allowSelfSignoff: false });
-    await em.flush();
-  }
-  return toDto(s);
+  const s = await em.findOne(ShopSettings, { shopId });
+  return toDto(s ?? { shopId, ...DEFAULTS });
 }
 
-/** Applies a validated patch to the shop's settings. */
+/** Applies a validated patch to the shop's settings, creating their row on the first change. */
 export async function updateShopSettings(em: EntityManager, shopId: string, patch: z.infer<typeof shopSettingsPatch>): Promise<ShopSettingsDto> {
-  await getShopSettings(em, shopId);
+  // Two owners saving at once for the first time must not collide on the row's key.
+  await em.getConnection().execute('insert into shop_settings (shop_id, preferred_torque_unit, preferred_length_unit, allow_self_signoff, updated_at) values (?, ?, ?, ?, now()) on conflict (shop_id) do nothing', [shopId, DEFAULTS.preferredTorqueUnit, DEFAULTS.preferredLengthUnit, DEFAULTS.allowSelfSignoff], 'run', em.getTransactionContext());
   const s = await em.findOneOrFail(ShopSettings, { shopId });
   em.assign(s, patch);
   await em.flush();
