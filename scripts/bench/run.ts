@@ -94,6 +94,7 @@ const pageRow = async (label: string, cookie: string, path: string, target: stri
   try {
     const f = await measurePage(APP_URL, cookie, path);
     row(`${label} page JS (gzip)`, `${fmt(f.jsGzipKB, 1)} KB in ${f.jsFiles} files`, '—', '', target);
+    row(`${label} of which the React runtime`, `${fmt(f.reactGzipKB, 1)} KB`, '—', '', '');
     row(`${label} first byte / interactive`, `${fmt(f.firstByteMs)} / ${fmt(f.interactiveMs)} ms`, '—', '', '');
   } catch (e) {
     row(`${label} page`, `failed: ${String(e).split('\n')[0]!.slice(0, 70)}`, '—', '', target);
