@@ -82,7 +82,9 @@ export default function ReviewQueue({ items }: Props) {
       {rows.length === 0 ? (
         <p className="tt-card p-5 text-muted" data-testid="review-empty">✓ Nothing waits for you{items.length ? ' with this filter' : ''}.</p>
       ) : (
-        <table className="w-full tt-card text-base" data-testid="review-table">
+        // A narrow screen scrolls the table, not the page (relative: keeps the hidden header label inside).
+        <div className="tt-card overflow-x-auto relative">
+        <table className="w-full text-base" data-testid="review-table">
           <thead className="bg-sunken">
             <tr>{header('kind', 'Waiting')}{header('jobCode', 'Job')}{header('procedureName', 'Procedure')}<th scope="col" className="text-left p-2">Step</th>{header('since', 'Since')}<th scope="col" className="p-2"><span className="sr-only">Open</span></th></tr>
           </thead>
@@ -99,6 +101,7 @@ export default function ReviewQueue({ items }: Props) {
             ))}
           </tbody>
         </table>
+        </div>
       )}
     </div>
   );

@@ -100,19 +100,19 @@ export default function SignoffPanel(p: Props) {
       <section className="tt-card p-5 space-y-3" aria-labelledby="covers">
         <h2 id="covers" className="text-xl font-bold">What this signature covers</h2>
         <p className="text-muted">{p.stepId ? `Steps 1–${steps.length} before hold point "${p.stepTitle}"` : `All ${steps.length} steps of the run`} · {p.data.photos} photo{p.data.photos === 1 ? '' : 's'} on the run</p>
-        <table className="w-full text-base" data-testid="covered-steps">
+        <div className="overflow-x-auto relative"><table className="w-full text-base" data-testid="covered-steps">
           <thead className="bg-sunken"><tr><th className="text-left p-2">#</th><th className="text-left p-2">Step</th><th className="text-left p-2">State</th><th className="text-left p-2">By</th><th className="text-left p-2">Note</th></tr></thead>
           <tbody>{steps.map((s) => <tr key={s.stepId} className="border-t border-line"><td className="p-2">{s.n}</td><td className="p-2">{s.title}</td><td className="p-2">{s.state}</td><td className="p-2">{s.by}</td><td className="p-2">{s.note}</td></tr>)}</tbody>
-        </table>
+        </table></div>
       </section>
 
       <section className="tt-card p-5 space-y-3" aria-labelledby="readings">
         <h2 id="readings" className="text-xl font-bold">Readings against spec</h2>
         {readings.length === 0 ? <p className="text-muted">No readings.</p> : (
-          <table className="w-full text-base" data-testid="covered-readings">
+          <div className="overflow-x-auto relative"><table className="w-full text-base" data-testid="covered-readings">
             <thead className="bg-sunken"><tr><th className="text-left p-2">Step</th><th className="text-left p-2">Position</th><th className="text-left p-2">Readings</th><th className="text-left p-2">Spec</th><th className="text-left p-2">Result</th><th className="text-left p-2">Verdict</th></tr></thead>
             <tbody>{readings.map((r) => <tr key={`${r.stepId}-${r.position}`} className="border-t border-line"><td className="p-2">{r.step}</td><td className="p-2">{r.position}</td><td className="p-2">{r.readings}</td><td className="p-2">{r.spec}</td><td className="p-2">{r.result}</td><td className="p-2"><Verdict inSpec={r.inSpec} /></td></tr>)}</tbody>
-          </table>
+          </table></div>
         )}
       </section>
 

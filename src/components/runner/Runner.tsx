@@ -92,7 +92,7 @@ function RunnerView({ run, viewer, units }: Props) {
       </div>
       {legend && <Legend onClose={() => setLegend(false)} />}
       <StatusRegion status={sync.status} />
-      <div className="grid gap-6 lg:grid-cols-[1fr_22rem]">
+      <div className="grid grid-cols-1 gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
         <div className="space-y-4 min-w-0">
           {next && (
             <p className="text-2xl font-bold rounded-md bg-accent-soft px-4 py-3" data-testid="next-expected" aria-live="polite">
@@ -109,7 +109,7 @@ function RunnerView({ run, viewer, units }: Props) {
           )}
           {step && <StepExtras key={`extras-${step.id}`} runId={run.run.id} jobId={run.run.jobId} step={step} role={viewer.role} />}
         </div>
-        <aside className="space-y-4" aria-label="Run overview">
+        <aside className="space-y-4 min-w-0" aria-label="Run overview">
           {following && (
             <section className="tt-card p-4" data-testid="coming-next">
               <h2 className="font-semibold text-muted">Coming next</h2>

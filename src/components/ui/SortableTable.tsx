@@ -17,7 +17,7 @@ type Props<T> = {
 export function SortableTable<T>({ table, testId, rowAttrs, noun, total }: Props<T>) {
   const { pageIndex } = table.getState().pagination;
   return (
-    <div className="tt-card overflow-x-auto">
+    <div className="tt-card overflow-x-auto relative">
       <table className="w-full text-left" data-testid={testId}>
         <thead className="bg-sunken">
           {table.getHeaderGroups().map((g) => (
