@@ -7,7 +7,7 @@ import { JobStatusMark } from './JobStatusMark';
 import type { JobSummaryDto } from './types';
 
 const columns: ColumnDef<JobSummaryDto>[] = [
-  { accessorKey: 'code', header: 'Job', cell: (c) => <a className="underline font-semibold text-accent" href={`/jobs/${c.row.original.id}`}>{c.row.original.code}</a> },
+  { accessorKey: 'code', header: 'Job', cell: (c) => <a className="underline font-semibold text-accent whitespace-nowrap" href={`/jobs/${c.row.original.id}`}>{c.row.original.code}</a> },
   { accessorKey: 'unitDescription', header: 'Unit', cell: (c) => <span>{c.row.original.unitDescription}{c.row.original.serial && <span className="block text-muted text-sm">S/N {c.row.original.serial}</span>}</span> },
   { accessorKey: 'customer', header: 'Customer' },
   { accessorKey: 'status', header: 'Status', sortingFn: (a, b) => JOB_STATUSES.indexOf(a.original.status) - JOB_STATUSES.indexOf(b.original.status), cell: (c) => <JobStatusMark status={c.row.original.status} /> },

@@ -29,10 +29,10 @@ export default function PartsList({ initial, canEdit }: Props) {
       {list.rows.length === 0 ? (
         <p className="text-lg">Nothing to replace yet. Parts come from replace steps, torque-to-yield fasteners, findings and tags set to “Replace”.</p>
       ) : (
-        <table className="w-full border-collapse text-left">
+        <div className="overflow-x-auto relative"><table className="w-full border-collapse text-left">
           <thead><tr className="border-b-2 border-line"><th className="py-2 pr-3">Part</th><th className="py-2 pr-3 w-56">Quantity</th><th className="py-2">Why</th></tr></thead>
           <tbody>{list.rows.map((r) => <Row key={r.key} row={r} canEdit={canEdit} onSave={(q) => save(r, q)} />)}</tbody>
-        </table>
+        </table></div>
       )}
     </div>
   );

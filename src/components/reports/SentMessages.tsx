@@ -133,7 +133,7 @@ export default function SentMessages(p: Props) {
       <div>
         <h3 className="font-bold text-lg">Messages</h3>
         {messages.length === 0 ? <p className="text-muted">Nothing sent yet.</p> : (
-          <table className="w-full text-base" data-testid="sent-messages">
+          <div className="overflow-x-auto relative"><table className="w-full text-base" data-testid="sent-messages">
             <thead className="bg-sunken"><tr><th className="text-left p-2">State</th><th className="text-left p-2">To</th><th className="text-left p-2">Subject</th><th className="text-left p-2">Attempts</th><th className="text-left p-2">When</th></tr></thead>
             <tbody>{messages.map((m) => (
               <tr key={m.id} className="border-t border-line" data-testid="sent-message" data-status={m.status}>
@@ -144,7 +144,7 @@ export default function SentMessages(p: Props) {
                 <td className="p-2 whitespace-nowrap">{when(m.sentAt ?? m.createdAt)}</td>
               </tr>
             ))}</tbody>
-          </table>
+          </table></div>
         )}
       </div>
       {p.canShare && (

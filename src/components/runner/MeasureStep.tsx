@@ -107,7 +107,7 @@ export function MeasureStep({ step, snapshot, sync, editable }: StepPanelProps &
         )}
       </div>
       {result && (
-        <table className="w-full text-left" data-testid="measure-results">
+        <div className="overflow-x-auto relative"><table className="w-full text-left" data-testid="measure-results">
           <caption className="text-left font-semibold mb-1">Live check ({result.summary})</caption>
           <thead>
             <tr className="border-b border-line">
@@ -127,7 +127,7 @@ export function MeasureStep({ step, snapshot, sync, editable }: StepPanelProps &
               </tr>
             ))}
           </tbody>
-        </table>
+        </table></div>
       )}
       {editable && (
         <button type="button" className={`tt-btn ${!saveIsPrimary ? 'tt-btn-primary' : 'tt-btn-quiet'} w-full text-2xl min-h-16`} data-primary={!saveIsPrimary ? 'true' : undefined} disabled={!canSubmit} onClick={() => sync.record({ type: 'measure.submit', stepId: step.id })} data-testid="submit-readings">
