@@ -6,7 +6,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { launch, newContext, signInAs, type DemoRole } from './support/browser';
+import { launch, newContext, ok, signedIn, signInAs, type DemoRole } from './support/browser';
 
 let browser: Browser;
 
@@ -19,26 +19,18 @@ const LONG = {
 
 /** A job of its own with long tokens everywhere they show, so the check does not rely on other tests' data. */
 async function seedLongTokens() {
-  const tctx = await newContext(browser);
-  const tpage = await tctx.newPage();
-  await signInAs(tpage, 'technician');
-  const techId = (await (await tctx.request.get('/api/auth/get-session')).json()).user.id as string;
-  await tctx.close();
-  const ctx = await newContext(browser);
-  const page = await ctx.newPage();
-  await signInAs(page, 'lead');
-  const api = ctx.request;
-  const must = async (res: Awaited<ReturnType<typeof api.post>>): Promise<any> => {
-    if (!res.ok()) throw new Error(`${res.url()} answered ${res.status()}: ${await res.text()}`);
-    return res.json();
-  };
-  const demoJob = ((await must(await api.get('/api/jobs'))).jobs as Array<{ id: string; code: string }>).find((j) => j.code === 'J-0001')!;
-  const demoRun = (await must(await api.get(`/api/jobs/${demoJob.id}`))).runs[0].id as string;
-  const revisionId = (await must(await api.get(`/api/runs/${demoRun}`))).run.revisionId as string;
-  const job = await must(await api.post('/api/jobs', { data: { unitDescription: `Invented unit ${LONG.part}`, serial: LONG.part.slice(0, 60), customer: LONG.mail, notes: `See ${LONG.link}`, technicianIds: [techId] } }));
-  await must(await api.post(`/api/jobs/${job.id}/runs`, { data: { revisionId } }));
-  await must(await api.post(`/api/jobs/${job.id}/findings`, { data: { what: `Scoring on ${LONG.part}`, where: LONG.link, severity: 'minor', partsToReplace: [{ part: LONG.part, quantity: 1 }] } }));
-  await ctx.close();
+  const tech = await signedIn(browser, 'technician');
+  await tech.ctx.close();
+  const lead = await signedIn(browser, 'lead');
+  const api = lead.ctx.request;
+  type Id = { id: string };
+  const demoJob = (await ok<{ jobs: Array<Id & { code: string }> }>(await api.get('/api/jobs'), 200)).jobs.find((j) => j.code === 'J-0001')!;
+  const demoRun = (await ok<{ runs: Id[] }>(await api.get(`/api/jobs/${demoJob.id}`), 200)).runs[0]!.id;
+  const { revisionId } = (await ok<{ run: { revisionId: string } }>(await api.get(`/api/runs/${demoRun}`), 200)).run;
+  const job = await ok<Id>(await api.post('/api/jobs', { data: { unitDescription: `Invented unit ${LONG.part}`, serial: LONG.part.slice(0, 60), customer: LONG.mail, notes: `See ${LONG.link}`, technicianIds: [tech.userId] } }), 201);
+  await ok(await api.post(`/api/jobs/${job.id}/runs`, { data: { revisionId } }), 201);
+  await ok(await api.post(`/api/jobs/${job.id}/findings`, { data: { what: `Scoring on ${LONG.part}`, where: LONG.link, severity: 'minor', partsToReplace: [{ part: LONG.part, quantity: 1 }] } }), 201);
+  await lead.ctx.close();
 }
 
 beforeAll(async () => {

@@ -5,9 +5,9 @@
  * and its CSV show what the work calls for. Setup goes through the API as the lead.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { APIRequestContext, Browser, BrowserContext, Page } from 'playwright-core';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
 import sharp from 'sharp';
-import { hydrated, launch, newContext, signInAs } from './support/browser';
+import { hydrated, launch, newContext, ok, signedIn as signedInAs } from './support/browser';
 import { expectedModules, readLabels } from '../support/labels-pdf';
 
 const EXAMPLE = "Example data — not a maker's specification.";
@@ -24,19 +24,11 @@ const contexts: BrowserContext[] = [];
 beforeAll(async () => { browser = await launch(); });
 afterAll(async () => { for (const c of contexts) await c.close().catch(() => {}); await browser?.close(); });
 
-async function signedIn(role: 'lead' | 'technician'): Promise<{ ctx: BrowserContext; page: Page; userId: string }> {
-  const ctx = await newContext(browser, { width: 1024, height: 1400, touch: role === 'technician' });
-  contexts.push(ctx);
-  const page = await ctx.newPage();
-  await signInAs(page, role);
-  const session = await (await ctx.request.get('/api/auth/get-session')).json();
-  return { ctx, page, userId: session.user.id as string };
-}
-
-async function ok<T>(res: Awaited<ReturnType<APIRequestContext['post']>>, status: number): Promise<T> {
-  if (res.status() !== status) throw new Error(`${res.url()} answered ${res.status()}: ${await res.text()}`);
-  return (await res.json()) as T;
-}
+const signedIn = async (role: 'lead' | 'technician') => {
+  const member = await signedInAs(browser, role, { height: 1400 });
+  contexts.push(member.ctx);
+  return member;
+};
 const poll = <T,>(fn: () => Promise<T> | T) => expect.poll(fn, { timeout: 20_000, interval: 150 });
 /** Thumbnails that have actually loaded (the redirect to the store worked). */
 const loadedThumbs = (page: Page, sel: string) => page.locator(sel).evaluateAll((imgs) => imgs.filter((i) => i instanceof HTMLImageElement && i.complete && i.naturalWidth > 0).length);

@@ -6,8 +6,8 @@
  * technician, the lead and the reviewer do happens in the UI.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { APIRequestContext, Browser, BrowserContext, Page } from 'playwright-core';
-import { hydrated, launch, newContext, signInAs } from './support/browser';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { hydrated, launch, ok, signedIn as signedInAs } from './support/browser';
 import { DEMO_PASSWORD } from '../../src/server/seeders/demo-people';
 
 const EXAMPLE = "Example data — not a maker's specification.";
@@ -32,19 +32,11 @@ const contexts: BrowserContext[] = [];
 beforeAll(async () => { browser = await launch(); });
 afterAll(async () => { for (const c of contexts) await c.close().catch(() => {}); await browser?.close(); });
 
-async function signedIn(role: 'lead' | 'technician' | 'reviewer'): Promise<{ ctx: BrowserContext; page: Page; userId: string }> {
-  const ctx = await newContext(browser, { width: 1024, height: 1300, touch: role === 'technician' });
-  contexts.push(ctx);
-  const page = await ctx.newPage();
-  await signInAs(page, role);
-  const session = await (await ctx.request.get('/api/auth/get-session')).json();
-  return { ctx, page, userId: session.user.id as string };
-}
-
-async function ok<T>(res: Awaited<ReturnType<APIRequestContext['post']>>, status: number): Promise<T> {
-  if (res.status() !== status) throw new Error(`${res.url()} answered ${res.status()}: ${await res.text()}`);
-  return (await res.json()) as T;
-}
+const signedIn = async (role: 'lead' | 'technician' | 'reviewer') => {
+  const member = await signedInAs(browser, role, { height: 1300 });
+  contexts.push(member.ctx);
+  return member;
+};
 
 /** Polls with room for the server round trips and the runner's 3 s catch-up. */
 const poll = <T,>(fn: () => Promise<T> | T) => expect.poll(fn, { timeout: 20_000, interval: 150 });

@@ -9,13 +9,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import type { MikroORM } from '@mikro-orm/postgresql';
-import { freshDatabase } from './support/db';
-import { createShop, type TestShop } from './support/shops';
+import type { TestShop } from './support/shops';
 import { callRoute } from './support/routes';
 import { discoverRoutes, fillPattern, isPublicPattern, loadRoute } from './support/routes-index';
-import { makeRecords } from './access-matrix.fixtures';
-import { tableChecksum } from './support/checksum';
-import { badId, goodParams, nasty, type FuzzRecords } from './fuzz.fixtures';
+import { badId, fuzzWorld, goodParams, nasty, type FuzzRecords } from './fuzz.fixtures';
 import type { ShopRole } from '../../src/lib/access';
 
 const RUNS = Number(process.env.FUZZ_RUNS ?? 30);
@@ -44,12 +41,7 @@ const goodQuery = (r: FuzzRecords): Record<string, string> => ({
 });
 
 beforeAll(async () => {
-  orm = await freshDatabase();
-  a = await createShop('Read fuzz shop A');
-  b = await createShop('Read fuzz shop B');
-  recA = { ...(await makeRecords(orm, a)), technicianId: a.members.technician.userId } as FuzzRecords;
-  recB = { ...(await makeRecords(orm, b)), technicianId: b.members.technician.userId } as FuzzRecords;
-  checksum = await tableChecksum(orm);
+  ({ orm, a, b, recA, recB, checksum } = await fuzzWorld('Read fuzz shop'));
   for (const t of targets) handlers.set(t.key, (await loadRoute(t.route)).GET as Parameters<typeof callRoute>[0]);
 }, 120_000);
 

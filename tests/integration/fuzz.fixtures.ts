@@ -1,6 +1,9 @@
 /** What both fuzz runs (writes and reads) draw from: nasty strings, right and wrong ids. */
 import fc from 'fast-check';
-import type { ShopRecords } from './access-matrix.fixtures';
+import { makeRecords, type ShopRecords } from './access-matrix.fixtures';
+import { tableChecksum } from './support/checksum';
+import { freshDatabase } from './support/db';
+import { createShop, type TestShop } from './support/shops';
 
 const MB = 1024 * 1024;
 export type FuzzRecords = ShopRecords & { technicianId: string };
@@ -26,3 +29,12 @@ export const badId = () => fc.oneof(
   fc.constant('B'), // marker: another shop's record of the right kind
 );
 
+
+/** A fresh database with two shops and a full set of records in each, and the table checksum. */
+export async function fuzzWorld(label: string) {
+  const orm = await freshDatabase();
+  const a = await createShop(`${label} A`);
+  const b = await createShop(`${label} B`);
+  const records = async (shop: TestShop): Promise<FuzzRecords> => ({ ...(await makeRecords(orm, shop)), technicianId: shop.members.technician.userId });
+  return { orm, a, b, recA: await records(a), recB: await records(b), checksum: await tableChecksum(orm) };
+}

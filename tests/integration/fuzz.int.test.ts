@@ -9,13 +9,11 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import type { MikroORM } from '@mikro-orm/postgresql';
-import { freshDatabase } from './support/db';
-import { createShop, type TestShop } from './support/shops';
+import type { TestShop } from './support/shops';
 import { callRoute } from './support/routes';
 import { discoverRoutes, fillPattern, loadRoute, STATE_CHANGING } from './support/routes-index';
-import { makeRecords, matrixProcedureFile } from './access-matrix.fixtures';
-import { tableChecksum } from './support/checksum';
-import { badId, goodParams, nasty, type FuzzRecords } from './fuzz.fixtures';
+import { matrixProcedureFile } from './access-matrix.fixtures';
+import { badId, fuzzWorld, goodParams, nasty, type FuzzRecords } from './fuzz.fixtures';
 import type { ShopRole } from '../../src/lib/access';
 
 const RUNS = Number(process.env.FUZZ_RUNS ?? 30);
@@ -66,12 +64,7 @@ const fuzzed = targets.filter((t) => !t.route.pattern.startsWith('/api/auth/'));
 const handlers = new Map<string, Parameters<typeof callRoute>[0]>();
 
 beforeAll(async () => {
-  orm = await freshDatabase();
-  a = await createShop('Fuzz shop A');
-  b = await createShop('Fuzz shop B');
-  recA = { ...(await makeRecords(orm, a)), technicianId: a.members.technician.userId } as Rec;
-  recB = { ...(await makeRecords(orm, b)), technicianId: b.members.technician.userId } as Rec;
-  checksum = await tableChecksum(orm);
+  ({ orm, a, b, recA, recB, checksum } = await fuzzWorld('Fuzz shop'));
   for (const t of fuzzed) handlers.set(t.key, (await loadRoute(t.route))[t.method] as Parameters<typeof callRoute>[0]);
 }, 120_000);
 

@@ -1,5 +1,5 @@
 /** Headless Chromium through playwright-core, against the server scripts/test.mjs started. */
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { chromium, type APIResponse, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { DEMO_MEMBERS, DEMO_PASSWORD } from '../../../src/server/seeders/demo-people';
 
 export const APP_URL = process.env.APP_URL ?? 'http://127.0.0.1:4321';
@@ -39,4 +39,19 @@ export async function signIn(page: Page, email: string, password = DEMO_PASSWORD
 
 export async function signInAs(page: Page, role: DemoRole, next = '/') {
   await signIn(page, demo(role).email, DEMO_PASSWORD, next);
+}
+
+/** A member in a context of their own (touch for the technician, as at the bench), with their user id. */
+export async function signedIn(browser: Browser, role: DemoRole, size: { width?: number; height?: number } = {}): Promise<{ ctx: BrowserContext; page: Page; userId: string }> {
+  const ctx = await newContext(browser, { width: size.width ?? 1024, height: size.height ?? 1300, touch: role === 'technician' });
+  const page = await ctx.newPage();
+  await signInAs(page, role);
+  const session = await (await ctx.request.get('/api/auth/get-session')).json();
+  return { ctx, page, userId: session.user.id as string };
+}
+
+/** The JSON of an API answer that must have this status; otherwise an error naming what came back. */
+export async function ok<T>(res: APIResponse, status: number): Promise<T> {
+  if (res.status() !== status) throw new Error(`${res.url()} answered ${res.status()}: ${await res.text()}`);
+  return (await res.json()) as T;
 }
